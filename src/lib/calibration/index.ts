@@ -1,0 +1,4 @@
+// The capture reader needs Node streams; import it from './capture' on the server.
+export * from './erfc';
+export * from './stats';
+export * from './calibrate';
