@@ -1,0 +1,3 @@
+export * from './checks';
+export * from './timeline';
+export * from './types';
