@@ -1,0 +1,66 @@
+// @ts-check
+// `npm test`: every test, against its own PostgreSQL (port and data separate from `npm start`).
+import { spawnSync } from 'node:child_process';
+import { ensureDependencies } from './lib/deps.mjs';
+import { LOCAL } from './lib/ports.mjs';
+import { ensurePostgres, recreateDatabase, stopPostgres } from './lib/pg.mjs';
+
+const t = LOCAL.test;
+const started = Date.now();
+ensureDependencies();
+
+/** @param {string} label @param {string[]} args @param {NodeJS.ProcessEnv} [env] */
+function step(label, args, env = {}) {
+	console.log(`\n[test] ${label}`);
+	const res = spawnSync(process.execPath, args, {
+		stdio: 'inherit',
+		env: { ...process.env, ...env }
+	});
+	if (res.status !== 0) {
+		console.error(`[test] ${label} failed`);
+		finish(res.status ?? 1);
+	}
+}
+
+let pgStarted = false;
+/** @param {number} code */
+function finish(code) {
+	if (pgStarted && !process.env.KEEP_TEST_DB) stopPostgres({ dataDir: t.pgDir });
+	console.log(
+		`[test] ${code === 0 ? 'all passed' : 'FAILED'} in ${Math.round((Date.now() - started) / 1000)} s`
+	);
+	process.exit(code);
+}
+
+const base = await ensurePostgres({ dataDir: t.pgDir, port: t.pgPort, database: 'postgres' });
+pgStarted = true;
+const urlFor = (/** @type {string} */ db) => base.replace(/\/postgres$/, `/${db}`);
+
+step('type check', [
+	'node_modules/svelte-check/bin/svelte-check',
+	'--tsconfig',
+	'./tsconfig.json',
+	'--threshold',
+	'error',
+	'--output',
+	'human'
+]);
+
+recreateDatabase({ port: t.pgPort, database: 'gloaming_it' });
+step('unit and integration tests', ['node_modules/vitest/vitest.mjs', 'run'], {
+	TEST_DATABASE_URL: urlFor('gloaming_it')
+});
+
+step('production build', ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn']);
+
+recreateDatabase({ port: t.pgPort, database: 'gloaming_e2e' });
+const e2eUrl = urlFor('gloaming_e2e');
+step('prepare browser-test database', ['--import', 'tsx', 'scripts/migrate.ts'], {
+	DATABASE_URL: e2eUrl
+});
+step('load demo data', ['--import', 'tsx', 'scripts/seed.ts'], { DATABASE_URL: e2eUrl });
+step('browser tests', ['node_modules/@playwright/test/cli.js', 'test'], {
+	E2E_DATABASE_URL: e2eUrl
+});
+
+finish(0);

@@ -1,0 +1,56 @@
+import { z } from 'zod';
+
+export const VENUE_KINDS = ['haunt', 'trail', 'exhibit'] as const;
+export const VENUE_KIND_LABELS: Record<(typeof VENUE_KINDS)[number], string> = {
+	haunt: 'Haunted attraction',
+	trail: 'Seasonal trail',
+	exhibit: 'Interactive exhibit'
+};
+
+export function isTimeZone(tz: string): boolean {
+	try {
+		new Intl.DateTimeFormat('en', { timeZone: tz });
+		return tz.includes('/') || tz === 'UTC';
+	} catch {
+		return false;
+	}
+}
+
+export const timeZoneField = z
+	.string({ error: 'Choose a time zone.' })
+	.trim()
+	.refine(isTimeZone, 'Use an IANA time zone such as Europe/London or America/Chicago.');
+
+const optionalText = (max: number) =>
+	z
+		.string()
+		.trim()
+		.max(max, `Use at most ${max} characters.`)
+		.optional()
+		.transform((v) => (v ? v : null));
+
+export const newVenueSchema = z.object({
+	name: z
+		.string({ error: 'Name the venue.' })
+		.trim()
+		.min(2, 'Use at least 2 characters.')
+		.max(80, 'Use at most 80 characters.'),
+	kind: z.enum(VENUE_KINDS, { error: 'Choose what kind of venue this is.' }),
+	timeZone: timeZoneField
+});
+
+export const venueSettingsSchema = newVenueSchema.extend({
+	address: optionalText(200),
+	defaultGroupSize: z.coerce
+		.number({ error: 'Enter a whole number of guests.' })
+		.int('Enter a whole number of guests.')
+		.min(1, 'A group has at least 1 guest.')
+		.max(100, 'Groups over 100 are not supported.'),
+	dispatchIntervalSeconds: z.coerce
+		.number({ error: 'Enter seconds between groups.' })
+		.int('Enter whole seconds.')
+		.min(5, 'Use at least 5 seconds.')
+		.max(3600, 'Use at most an hour.'),
+	safetyContactName: optionalText(100),
+	safetyContactPhone: optionalText(40)
+});

@@ -1,0 +1,62 @@
+import { boolean, integer, pgTable, primaryKey, text, timestamp } from 'drizzle-orm/pg-core';
+
+// Tables the Auth.js Drizzle adapter reads and writes, plus our password hash on the person.
+export const users = pgTable('users', {
+	id: text('id')
+		.primaryKey()
+		.$defaultFn(() => crypto.randomUUID()),
+	name: text('name'),
+	email: text('email').notNull().unique(),
+	emailVerified: timestamp('email_verified', { mode: 'date', withTimezone: true }),
+	image: text('image'),
+	passwordHash: text('password_hash'),
+	createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
+});
+
+export const accounts = pgTable(
+	'accounts',
+	{
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		type: text('type').$type<'email' | 'oauth' | 'oidc' | 'webauthn'>().notNull(),
+		provider: text('provider').notNull(),
+		providerAccountId: text('provider_account_id').notNull(),
+		refresh_token: text('refresh_token'),
+		access_token: text('access_token'),
+		expires_at: integer('expires_at'),
+		token_type: text('token_type'),
+		scope: text('scope'),
+		id_token: text('id_token'),
+		session_state: text('session_state')
+	},
+	(t) => [primaryKey({ columns: [t.provider, t.providerAccountId] })]
+);
+
+export const sessions = pgTable('sessions', {
+	sessionToken: text('session_token').primaryKey(),
+	userId: text('user_id')
+		.notNull()
+		.references(() => users.id, { onDelete: 'cascade' }),
+	expires: timestamp('expires', { mode: 'date', withTimezone: true }).notNull()
+});
+
+export const verificationTokens = pgTable(
+	'verification_tokens',
+	{
+		identifier: text('identifier').notNull(),
+		token: text('token').notNull(),
+		expires: timestamp('expires', { mode: 'date', withTimezone: true }).notNull()
+	},
+	(t) => [primaryKey({ columns: [t.identifier, t.token] })]
+);
+
+export const signInAttempts = pgTable('sign_in_attempts', {
+	id: integer('id').primaryKey().generatedAlwaysAsIdentity(),
+	/** 'email' or 'address': which key the attempt counts against. */
+	keyKind: text('key_kind').$type<'email' | 'address'>().notNull(),
+	key: text('key').notNull(),
+	method: text('method').$type<'password' | 'email-link'>().notNull(),
+	succeeded: boolean('succeeded').notNull().default(false),
+	at: timestamp('at', { withTimezone: true }).notNull().defaultNow()
+});

@@ -1,0 +1,2 @@
+export * from './auth.schema';
+export * from './venues.schema';

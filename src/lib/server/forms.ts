@@ -1,0 +1,24 @@
+import { z } from 'zod';
+
+/** Parse a form with a zod schema; errors come back per field, in words meant for people. */
+export async function parseForm<T extends z.ZodType>(request: Request, schema: T) {
+	const form = await request.formData().catch(() => new FormData());
+	const raw: Record<string, FormDataEntryValue | FormDataEntryValue[]> = {};
+	for (const key of new Set(form.keys())) {
+		const all = form.getAll(key);
+		raw[key] = all.length > 1 ? all : all[0];
+	}
+	const result = schema.safeParse(raw);
+	if (result.success) return { ok: true as const, data: result.data as z.infer<T>, raw };
+	const errors = z.flattenError(result.error).fieldErrors as Record<string, string[]>;
+	return { ok: false as const, errors, raw };
+}
+
+/** Values to send back to the form after a failure, so nothing the person typed is lost. */
+export function keep(raw: Record<string, unknown>, ...omit: string[]) {
+	const out: Record<string, string> = {};
+	for (const [k, v] of Object.entries(raw)) {
+		if (!omit.includes(k) && typeof v === 'string') out[k] = v;
+	}
+	return out;
+}

@@ -1,0 +1,30 @@
+import type { Handle } from '@sveltejs/kit';
+import { and, eq } from 'drizzle-orm';
+import { db } from '../db';
+import { memberships, venues } from '../db/schema';
+
+/** For routes with a [venue] parameter, load the venue and the person's membership in it. */
+export const venueHandle: Handle = async ({ event, resolve }) => {
+	event.locals.venue = null;
+	const slug = event.params.venue;
+	if (slug && event.locals.person) {
+		const [row] = await db
+			.select({
+				id: venues.id,
+				slug: venues.slug,
+				name: venues.name,
+				kind: venues.kind,
+				timeZone: venues.timeZone,
+				role: memberships.role
+			})
+			.from(venues)
+			.innerJoin(
+				memberships,
+				and(eq(memberships.venueId, venues.id), eq(memberships.personId, event.locals.person.id))
+			)
+			.where(eq(venues.slug, slug))
+			.limit(1);
+		event.locals.venue = row ?? null;
+	}
+	return resolve(event);
+};

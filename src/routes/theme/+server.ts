@@ -1,0 +1,19 @@
+import { redirect } from '@sveltejs/kit';
+import { THEME_COOKIE } from '$lib/server/hooks/theme';
+import type { RequestHandler } from './$types';
+
+// Public: stores a display preference only.
+export const POST: RequestHandler = async ({ request, cookies, url }) => {
+	const form = await request.formData().catch(() => null);
+	const theme = form?.get('theme') === 'low-light' ? 'low-light' : 'dusk';
+	cookies.set(THEME_COOKIE, theme, {
+		path: '/',
+		httpOnly: true,
+		sameSite: 'lax',
+		secure: url.protocol === 'https:',
+		maxAge: 60 * 60 * 24 * 365
+	});
+	const back = request.headers.get('referer');
+	const target = back && new URL(back).origin === url.origin ? new URL(back).pathname : '/';
+	redirect(303, target);
+};
