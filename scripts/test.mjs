@@ -36,6 +36,7 @@ const base = await ensurePostgres({ dataDir: t.pgDir, port: t.pgPort, database: 
 pgStarted = true;
 const urlFor = (/** @type {string} */ db) => base.replace(/\/postgres$/, `/${db}`);
 
+step('sync SvelteKit types', ['node_modules/@sveltejs/kit/svelte-kit.js', 'sync']);
 step('type check', [
 	'node_modules/svelte-check/bin/svelte-check',
 	'--tsconfig',
