@@ -1,14 +1,13 @@
 // Load the demo venues and people. Refuses anything but a local database unless told explicitly.
 import { createDb } from '../src/lib/server/db/client';
+import { isLocalDatabaseUrl } from '../src/lib/server/db/local';
 import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from '../src/lib/server/demo';
 
 const url = process.env.DATABASE_URL;
 if (!url) throw new Error('DATABASE_URL is not set.');
-const host = new URL(url).hostname;
-const local = ['127.0.0.1', 'localhost', '::1', '[::1]'].includes(host);
-if (!local && process.env.GLOAMING_SEED_ANY_DATABASE !== 'yes') {
+if (!isLocalDatabaseUrl(url) && process.env.GLOAMING_SEED_ANY_DATABASE !== 'yes') {
 	console.error(
-		`Refusing to load demo data into ${host}: it is not the local database. ` +
+		'Refusing to load demo data: DATABASE_URL is not a database on this machine. ' +
 			'Set GLOAMING_SEED_ANY_DATABASE=yes if you really mean it.'
 	);
 	process.exit(1);

@@ -1,7 +1,22 @@
 // @ts-check
 // Fixed local ports and folders: one set for `npm start`, one for `npm test`, so both can run at once.
+// GLOAMING_PORT_OFFSET shifts every port, for a second checkout running its own stack beside this one.
+const offset = Number(process.env.GLOAMING_PORT_OFFSET ?? 0);
+
+/** @param {{ appPort: number, pgPort: number, smtpPort: number, mailWebPort: number, s3Port: number, pgDir: string, s3Dir: string }} set */
+function shifted(set) {
+	return {
+		...set,
+		appPort: set.appPort + offset,
+		pgPort: set.pgPort + offset,
+		smtpPort: set.smtpPort + offset,
+		mailWebPort: set.mailWebPort + offset,
+		s3Port: set.s3Port + offset
+	};
+}
+
 export const LOCAL = {
-	dev: {
+	dev: shifted({
 		appPort: 5510,
 		pgPort: 5532,
 		smtpPort: 2525,
@@ -9,8 +24,8 @@ export const LOCAL = {
 		s3Port: 5530,
 		pgDir: '.data/pg-dev',
 		s3Dir: '.data/objects-dev'
-	},
-	test: {
+	}),
+	test: shifted({
 		appPort: 5610,
 		pgPort: 5632,
 		smtpPort: 2625,
@@ -18,5 +33,5 @@ export const LOCAL = {
 		s3Port: 5630,
 		pgDir: '.data/pg-test',
 		s3Dir: '.data/objects-test'
-	}
+	})
 };

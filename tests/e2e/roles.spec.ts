@@ -44,3 +44,15 @@ test('one person, a different role in each venue', async ({ page }) => {
 	await page.goto(GALLERY);
 	await expect(page.getByText('you are Crew')).toBeVisible();
 });
+
+test('the venue switcher moves between venues and closes with Escape', async ({ page }) => {
+	await signIn(page, people.manager);
+	await page.getByRole('link', { name: /Hollow Pines Trail/ }).click();
+	await page.getByRole('button', { name: /Hollow Pines Trail/ }).click();
+	await expect(page.getByRole('link', { name: /Night Gallery/ })).toBeVisible();
+	await page.keyboard.press('Escape');
+	await expect(page.locator('#venue-menu')).toHaveCount(0);
+	await page.getByRole('button', { name: /Hollow Pines Trail/ }).click();
+	await page.getByRole('link', { name: /Night Gallery/ }).click();
+	await expect(page.getByRole('heading', { level: 1, name: /Night Gallery/ })).toBeVisible();
+});

@@ -7,6 +7,19 @@ test('password sign-in lands a one-venue person in their venue', async ({ page }
 	await expect(page.getByRole('heading', { level: 1, name: 'Hollow Pines Trail' })).toBeVisible();
 });
 
+test('the session cookie is HttpOnly and SameSite, and pages carry a content security policy', async ({
+	page,
+	context
+}) => {
+	const res = await page.goto('/sign-in');
+	expect(res?.headers()['content-security-policy']).toMatch(/default-src 'self'/);
+	expect(res?.headers()['content-security-policy']).toMatch(/script-src 'self' 'nonce-/);
+	await signIn(page, people.crew);
+	const session = (await context.cookies()).find((c) => c.name.endsWith('authjs.session-token'));
+	expect(session?.httpOnly).toBe(true);
+	expect(session?.sameSite).toBe('Lax');
+});
+
 test('a person in several venues chooses from their list', async ({ page }) => {
 	await signIn(page, people.manager);
 	await expect(page).toHaveURL(/\/venues$/);

@@ -2,7 +2,9 @@ import { error, redirect, type RequestEvent } from '@sveltejs/kit';
 import { ROLE_LABELS, type Role } from '$lib/roles';
 import type { SessionPerson, VenueContext } from './types';
 
-type GuardEvent = Pick<RequestEvent, 'locals' | 'url'>;
+type GuardEvent = Pick<RequestEvent, 'locals' | 'url'> & {
+	params?: Partial<Record<string, string>>;
+};
 
 function signInRedirect(event: GuardEvent): never {
 	const back = event.url.pathname + event.url.search;
@@ -25,8 +27,11 @@ export function requirePerson(event: GuardEvent): SessionPerson {
  */
 export function requireRole(event: GuardEvent, ...roles: Role[]): VenueContext {
 	requirePerson(event);
+	// Reading params.venue also tells SvelteKit to rerun the load when the venue in the URL changes.
+	const slug = event.params?.venue;
 	const venue = event.locals.venue;
-	if (!venue) error(404, 'There is no such venue, or you are not a member of it.');
+	if (!venue || (slug !== undefined && slug !== venue.slug))
+		error(404, 'There is no such venue, or you are not a member of it.');
 	if (roles.length && !roles.includes(venue.role)) {
 		const allowed = roles.map((r) => ROLE_LABELS[r]).join(', ');
 		error(
