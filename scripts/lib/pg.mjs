@@ -140,10 +140,15 @@ export async function ensurePostgres({ dataDir, port, database }) {
 			]);
 		}
 	}
-	for (let i = 0; i < 120; i++) {
-		const r = spawnSync(join(bin, 'pg_isready'), ['-h', '127.0.0.1', '-p', String(port)]);
-		if (r.status === 0) break;
-		await new Promise((res) => setTimeout(res, 250));
+	let ready = false;
+	for (let i = 0; i < 120 && !ready; i++) {
+		ready = spawnSync(join(bin, 'pg_isready'), ['-h', '127.0.0.1', '-p', String(port)]).status === 0;
+		if (!ready) await new Promise((res) => setTimeout(res, 250));
+	}
+	if (!ready) {
+		throw new Error(
+			`PostgreSQL did not accept connections on 127.0.0.1:${port} within 30 s; see ${join(dataDir, 'server.log')}`
+		);
 	}
 	const env = { ...process.env, PGPASSWORD: PASSWORD };
 	const exists = spawnSync(
