@@ -209,16 +209,25 @@ export const calendarRangeSchema = z
 		start: z.string({ error: 'Give start and end dates.' }),
 		end: z.string({ error: 'Give start and end dates.' })
 	})
-	.transform((r) => ({ start: r.start.slice(0, 10), end: r.end.slice(0, 10) }))
-	.refine(
-		(r) => parseDate(r.start) !== null && parseDate(r.end) !== null,
-		'Give dates as YYYY-MM-DD.'
-	)
-	.refine((r) => r.end > r.start, 'The end must come after the start.')
-	.refine(
-		(r) => parseDate(r.end)!.getTime() - parseDate(r.start)!.getTime() <= 430 * 86_400_000,
-		'Ask for at most 14 months at a time.'
-	);
+	.transform((r, ctx) => {
+		const start = r.start.slice(0, 10);
+		const end = r.end.slice(0, 10);
+		const from = parseDate(start);
+		const to = parseDate(end);
+		const problem =
+			!from || !to
+				? 'Give dates as YYYY-MM-DD.'
+				: to <= from
+					? 'The end must come after the start.'
+					: to.getTime() - from.getTime() > 430 * 86_400_000
+						? 'Ask for at most 14 months at a time.'
+						: null;
+		if (problem) {
+			ctx.addIssue({ code: 'custom', message: problem });
+			return z.NEVER;
+		}
+		return { start, end };
+	});
 
 export const oneOffSchema = z.object({
 	date: dateText('Give the date as YYYY-MM-DD.'),

@@ -16,7 +16,9 @@ export function localDay(date: string): string {
 		day: 'numeric',
 		month: 'short',
 		year: 'numeric'
-	}).format(new Date(`${date}T00:00:00Z`));
+	})
+		.format(new Date(`${date}T00:00:00Z`))
+		.replace(',', '');
 }
 
 /** The venue's local date 'YYYY-MM-DD' of an instant. */

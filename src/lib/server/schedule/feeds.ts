@@ -1,6 +1,6 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { and, asc, eq, isNull } from 'drizzle-orm';
-import { buildCalendar, type CalendarEvent } from '$lib/schedule';
+import { buildCalendar, type CalendarEvent } from '../../schedule';
 import type { Db } from '../db/client';
 import { assignments, calendarFeeds, memberships, positions, shows, venues } from '../db/schema';
 

@@ -1,5 +1,5 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { expandSeason, type ShowNight } from '$lib/schedule';
+import { expandSeason, type ShowNight } from '../../schedule';
 import type { Db } from '../db/client';
 import { seasons, shows } from '../db/schema';
 

@@ -1,5 +1,5 @@
 import { and, asc, eq, gt, inArray, lt, ne } from 'drizzle-orm';
-import { findDoubleBookings, type CrewAssignment } from '$lib/schedule';
+import { findDoubleBookings, type CrewAssignment } from '../../schedule';
 import type { Db } from '../db/client';
 import { assignments, positions, rooms, shows, unavailability, users, venues } from '../db/schema';
 
