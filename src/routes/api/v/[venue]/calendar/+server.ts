@@ -113,7 +113,7 @@ export const GET: RequestHandler = async (event) => {
 						kind: 'dark',
 						start: d,
 						end: nextDate(d),
-						title: `Dark night · ${season.name}`,
+						title: 'Dark night',
 						allDay: true
 					});
 				}
