@@ -3,7 +3,13 @@ import { expect, test, type Page } from '@playwright/test';
 import { GALLERY, TRAIL, people, signIn } from './support';
 
 // Every page, as the roles that can see it, at desktop and phone widths.
-const pages: { role: keyof typeof people | null; path: string; name: string }[] = [
+// `follow` names links to click from `path`, for pages whose address holds a generated id.
+const pages: {
+	role: keyof typeof people | null;
+	path: string;
+	name: string;
+	follow?: string[];
+}[] = [
 	{ role: null, path: '/sign-in', name: 'sign-in' },
 	{ role: null, path: '/sign-in/check-email', name: 'check-email' },
 	{ role: null, path: '/invitations/unknown-token', name: 'invitation-bad' },
@@ -13,8 +19,26 @@ const pages: { role: keyof typeof people | null; path: string; name: string }[] 
 	{ role: 'owner', path: `${TRAIL}/members`, name: 'members' },
 	{ role: 'owner', path: `${TRAIL}/settings`, name: 'settings' },
 	{ role: 'owner', path: `${TRAIL}/activity`, name: 'activity' },
+	{ role: 'owner', path: `${TRAIL}/calendar?date=2027-10-01`, name: 'calendar' },
+	{ role: 'owner', path: `${TRAIL}/seasons`, name: 'seasons' },
+	{ role: 'owner', path: `${TRAIL}/seasons/new`, name: 'season-new' },
+	{ role: 'owner', path: `${TRAIL}/positions`, name: 'positions' },
+	{
+		role: 'owner',
+		path: `${TRAIL}/seasons`,
+		follow: ['Hollow Pines Autumn 2027'],
+		name: 'season'
+	},
+	{
+		role: 'owner',
+		path: `${TRAIL}/seasons`,
+		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027'],
+		name: 'show'
+	},
 	{ role: 'crew', path: TRAIL, name: 'crew-tonight' },
 	{ role: 'crew', path: `${TRAIL}/rooms`, name: 'crew-rooms' },
+	{ role: 'crew', path: `${TRAIL}/my-nights`, name: 'crew-my-nights' },
+	{ role: 'crew', path: `${TRAIL}/calendar?date=2027-10-01`, name: 'crew-calendar' },
 	{ role: 'crew', path: `${TRAIL}/members`, name: 'crew-403' },
 	{ role: 'crew', path: GALLERY, name: 'crew-404' }
 ];
@@ -56,9 +80,17 @@ for (const theme of ['dusk', 'low-light'] as const) {
 			});
 			await context.addCookies([{ name: 'gloaming-theme', value: theme, url: baseURL! }]);
 			const page = await context.newPage();
+			let path = p.path;
+			if (p.follow) {
+				await page.goto(path);
+				for (const name of p.follow) {
+					path = (await page.getByRole('link', { name, exact: true }).getAttribute('href'))!;
+					await page.goto(path);
+				}
+			}
 			for (const width of [1280, 390]) {
 				await page.setViewportSize({ width, height: width === 390 ? 844 : 800 });
-				await page.goto(p.path);
+				await page.goto(path);
 				await expect(page.locator('h1').first()).toBeVisible();
 				if (width === 1280) await checkA11y(page);
 				await page.screenshot({

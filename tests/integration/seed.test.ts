@@ -1,8 +1,22 @@
 import { describe, expect, it } from 'vitest';
 import { eq, inArray } from 'drizzle-orm';
-import { memberships, rooms, users, venues } from '../../src/lib/server/db/schema';
+import {
+	assignments,
+	memberships,
+	rooms,
+	seasons,
+	shows,
+	users,
+	venues
+} from '../../src/lib/server/db/schema';
 import { verifyPassword } from '../../src/lib/server/auth/password';
-import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_VENUES, seedDemo } from '../../src/lib/server/demo';
+import {
+	DEMO_PASSWORD,
+	DEMO_PEOPLE,
+	DEMO_SEASON,
+	DEMO_VENUES,
+	seedDemo
+} from '../../src/lib/server/demo';
 import { testDb } from './db';
 
 const db = testDb();
@@ -48,5 +62,20 @@ describe('demo data', () => {
 			expect(await verifyPassword(p.passwordHash!, DEMO_PASSWORD)).toBe(true);
 			expect(await verifyPassword(p.passwordHash!, 'wrong')).toBe(false);
 		}
+	});
+
+	it('gives the trail one season of Friday and Saturday nights, once, with crew on opening night', async () => {
+		await seedDemo(db);
+		await seedDemo(db);
+		const [trail] = await db.select().from(venues).where(eq(venues.slug, DEMO_SEASON.venueSlug));
+		const list = await db.select().from(seasons).where(eq(seasons.venueId, trail.id));
+		expect(list.filter((s) => s.name === DEMO_SEASON.name)).toHaveLength(1);
+		const nights = await db.select().from(shows).where(eq(shows.seasonId, list[0].id));
+		// October 2027 has 10 Fridays and Saturdays; the 16th is dark.
+		expect(nights).toHaveLength(9);
+		const opening = nights.find((n) => n.openingNight)!;
+		expect(opening.date).toBe('2027-10-01');
+		const crew = await db.select().from(assignments).where(eq(assignments.showId, opening.id));
+		expect(crew).toHaveLength(3);
 	});
 });

@@ -1,7 +1,17 @@
 import { and, eq } from 'drizzle-orm';
 import type { Role } from '../roles';
 import type { Db } from './db/client';
-import { memberships, rooms, users, venues } from './db/schema';
+import {
+	assignments,
+	memberships,
+	positions,
+	rooms,
+	seasons,
+	shows,
+	users,
+	venues
+} from './db/schema';
+import { regenerateShows } from './schedule/seasons';
 import { hashPassword } from './auth/password';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
@@ -83,5 +93,78 @@ export async function seedDemo(db: Db) {
 				await db.insert(memberships).values({ venueId: venue.id, personId: ids[key], role });
 		}
 	}
+	await seedSchedule(db, ids);
 	return ids;
+}
+
+/** The trail's demo season: Friday and Saturday nights through October 2027, one dark night. */
+export const DEMO_SEASON = {
+	venueSlug: 'hollow-pines-trail',
+	name: 'Hollow Pines Autumn 2027',
+	firstNight: '2027-10-01',
+	rule: 'FREQ=WEEKLY;BYDAY=FR,SA;UNTIL=20271031',
+	doorsOpen: '19:00',
+	doorsClose: '23:00',
+	crewCallMinutesBefore: 120,
+	darkNights: ['2027-10-16'],
+	extraNights: [] as string[],
+	openingNight: '2027-10-01'
+};
+
+async function seedSchedule(db: Db, ids: Record<PersonKey, string>) {
+	const { venueSlug, ...fields } = DEMO_SEASON;
+	const [venue] = await db
+		.select({ id: venues.id, timeZone: venues.timeZone })
+		.from(venues)
+		.where(eq(venues.slug, venueSlug));
+	const roomList = await db
+		.select({ id: rooms.id, name: rooms.name })
+		.from(rooms)
+		.where(eq(rooms.venueId, venue.id));
+	const posts = [
+		...roomList.map((r) => ({ name: `Room tech, ${r.name}`, roomId: r.id, required: true })),
+		{ name: 'Queue line', roomId: null, required: true },
+		{ name: 'Safety lead', roomId: null, required: true }
+	];
+	for (const p of posts) {
+		await db
+			.insert(positions)
+			.values({ ...p, venueId: venue.id })
+			.onConflictDoNothing();
+	}
+	let [season] = await db
+		.select({ id: seasons.id })
+		.from(seasons)
+		.where(and(eq(seasons.venueId, venue.id), eq(seasons.name, fields.name)));
+	if (!season) {
+		[season] = await db
+			.insert(seasons)
+			.values({ ...fields, venueId: venue.id })
+			.returning({ id: seasons.id });
+		await regenerateShows(db, venue.id, season.id, venue.timeZone);
+	}
+	const [opening] = await db
+		.select({ id: shows.id })
+		.from(shows)
+		.where(and(eq(shows.seasonId, season.id), eq(shows.date, fields.openingNight)));
+	const postId = async (name: string) =>
+		(
+			await db
+				.select({ id: positions.id })
+				.from(positions)
+				.where(and(eq(positions.venueId, venue.id), eq(positions.name, name)))
+		)[0]?.id;
+	const crewPlan: [PersonKey, string][] = [
+		['crew', 'Room tech, Gatehouse'],
+		['manager', 'Safety lead'],
+		['designer', 'Room tech, Hollow Barn']
+	];
+	for (const [key, name] of crewPlan) {
+		const positionId = await postId(name);
+		if (!opening || !positionId) continue;
+		await db
+			.insert(assignments)
+			.values({ venueId: venue.id, showId: opening.id, positionId, personId: ids[key] })
+			.onConflictDoNothing();
+	}
 }

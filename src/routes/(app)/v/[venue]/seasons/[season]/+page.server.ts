@@ -1,0 +1,111 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { and, eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { describeRule, ruleToParts, SeasonRuleError } from '$lib/schedule';
+import { PLANNERS, requireRole } from '$lib/server/auth/guard';
+import { audit } from '$lib/server/audit';
+import { db } from '$lib/server/db';
+import { seasons } from '$lib/server/db/schema';
+import { seasonShows, updateSeason } from '$lib/server/schedule/seasons';
+import { localTime } from '$lib/util/when';
+import { previewOf, readSeasonForm } from '../season-form.server';
+import type { Actions, PageServerLoad } from './$types';
+
+async function findSeason(venueId: string, id: string) {
+	if (!z.uuid().safeParse(id).success) return null;
+	const [season] = await db
+		.select()
+		.from(seasons)
+		.where(and(eq(seasons.id, id), eq(seasons.venueId, venueId)));
+	return season ?? null;
+}
+
+export const load: PageServerLoad = async (event) => {
+	const venue = requireRole(event);
+	if (venue.role === 'crew') error(403, 'Crew see their nights under My nights.');
+	const season = await findSeason(venue.id, event.params.season);
+	if (!season) error(404, 'There is no such season.');
+	const list = await seasonShows(db, venue.id, season.id);
+	let parts = null;
+	let summary = season.rule;
+	try {
+		parts = ruleToParts(season.rule);
+		summary = describeRule(season.rule);
+	} catch (e) {
+		if (!(e instanceof SeasonRuleError)) throw e;
+	}
+	return {
+		season,
+		summary,
+		initial: {
+			name: season.name,
+			firstNight: season.firstNight,
+			ruleMode: parts ? 'simple' : 'typed',
+			nights: parts?.nightsOfWeek ?? [],
+			everyNWeeks: String(parts?.everyNWeeks ?? 1),
+			endMode: parts?.count ? 'count' : 'until',
+			until: parts?.until ?? '',
+			count: parts?.count ? String(parts.count) : '',
+			rule: season.rule,
+			doorsOpen: season.doorsOpen,
+			doorsClose: season.doorsClose,
+			crewCallMinutesBefore: String(season.crewCallMinutesBefore),
+			darkNights: season.darkNights.join('\n'),
+			extraNights: season.extraNights.join('\n'),
+			openingNight: season.openingNight ?? ''
+		},
+		shows: list.map((s) => ({
+			id: s.id,
+			date: s.date,
+			status: s.status,
+			edited: s.edited,
+			openingNight: s.openingNight,
+			doorsOpen: localTime(s.doorsOpen, venue.timeZone),
+			crewCall: localTime(s.crewCall, venue.timeZone)
+		})),
+		canEdit: PLANNERS.includes(venue.role)
+	};
+};
+
+export const actions: Actions = {
+	preview: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const read = await readSeasonForm(event.request, venue.timeZone);
+		if (!read.ok) return read.failure;
+		return { values: read.values, preview: previewOf(read.fields, read.nights, venue.timeZone) };
+	},
+	save: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const read = await readSeasonForm(event.request, venue.timeZone);
+		if (!read.ok) return read.failure;
+		const result = await updateSeason(
+			db,
+			venue.id,
+			event.params.season,
+			venue.timeZone,
+			read.fields
+		);
+		if (!result)
+			return fail(404, { values: read.values, message: 'That season no longer exists.' });
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'season.changed',
+			detail: { name: read.fields.name, ...result }
+		});
+		return { saved: result };
+	},
+	remove: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const season = await findSeason(venue.id, event.params.season);
+		if (!season) return fail(404, { message: 'That season no longer exists.' });
+		await db.delete(seasons).where(and(eq(seasons.id, season.id), eq(seasons.venueId, venue.id)));
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'season.removed',
+			detail: { name: season.name }
+		});
+		redirect(303, `/v/${venue.slug}/seasons`);
+	}
+};

@@ -1,0 +1,58 @@
+import { fail } from '@sveltejs/kit';
+import { SeasonRuleError, describeRule } from '$lib/schedule';
+import { parseForm, keep } from '$lib/server/forms';
+import { previewNights, type SeasonFields } from '$lib/server/schedule/seasons';
+import { seasonFormSchema } from '$lib/schemas/schedule';
+import { localTime } from '$lib/util/when';
+
+/** Reads the season form; a failure is ready to return from an action. */
+export async function readSeasonForm(request: Request, timeZone: string) {
+	const parsed = await parseForm(request, seasonFormSchema);
+	const raw = parsed.raw;
+	const values = { ...keep(raw), nights: [raw.nights ?? []].flat().map(String) };
+	if (!parsed.ok)
+		return { ok: false as const, failure: fail(400, { values, errors: parsed.errors }) };
+	try {
+		const nights = previewNights(parsed.data, timeZone);
+		if (!nights.length) {
+			return {
+				ok: false as const,
+				failure: fail(400, {
+					values,
+					errors: { firstNight: ['The rule gives no nights on or after the first night.'] }
+				})
+			};
+		}
+		return { ok: true as const, fields: parsed.data as SeasonFields, nights, values };
+	} catch (e) {
+		if (e instanceof SeasonRuleError) {
+			const field = raw.ruleMode === 'typed' ? 'rule' : 'firstNight';
+			return {
+				ok: false as const,
+				failure: fail(400, { values, errors: { [field]: [e.message] } })
+			};
+		}
+		throw e;
+	}
+}
+
+/** What the preview shows: each night's local doors and crew call. */
+export function previewOf(
+	fields: SeasonFields,
+	nights: ReturnType<typeof previewNights>,
+	timeZone: string
+) {
+	return {
+		summary: describeRule(fields.rule),
+		rule: fields.rule,
+		nights: nights.map((n) => ({
+			date: n.date,
+			doorsOpen: localTime(n.doorsOpen, timeZone),
+			doorsClose: localTime(n.doorsClose, timeZone),
+			crewCall: localTime(n.crewCall, timeZone),
+			extra: n.extra,
+			opening: n.date === fields.openingNight
+		})),
+		darkNights: fields.darkNights
+	};
+}

@@ -1,0 +1,224 @@
+import { error, fail } from '@sveltejs/kit';
+import { and, asc, eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { nextDate, wallToInstant } from '$lib/schedule';
+import { PLANNERS, requireRole } from '$lib/server/auth/guard';
+import { audit } from '$lib/server/audit';
+import { db } from '$lib/server/db';
+import { assignments, memberships, seasons, shows, users } from '$lib/server/db/schema';
+import { keep, parseForm } from '$lib/server/forms';
+import { getShow, listPositions, showAssignments, showConflicts } from '$lib/server/schedule/shows';
+import { assignSchema, idSchema, showStatusSchema, showTimesSchema } from '$lib/schemas/schedule';
+import { localTime } from '$lib/util/when';
+import type { Actions, PageServerLoad } from './$types';
+
+async function findShow(venueId: string, id: string) {
+	if (!z.uuid().safeParse(id).success) return null;
+	return getShow(db, venueId, id);
+}
+
+export const load: PageServerLoad = async (event) => {
+	const venue = requireRole(event);
+	const show = await findShow(venue.id, event.params.show);
+	if (!show) error(404, 'There is no such show.');
+	const person = event.locals.person!;
+	const here = await showAssignments(db, venue.id, show.id);
+	if (venue.role === 'crew' && !here.some((a) => a.personId === person.id)) {
+		error(403, 'Crew see the shows they are assigned to, under My nights.');
+	}
+	const [season] = show.seasonId
+		? await db
+				.select({ id: seasons.id, name: seasons.name })
+				.from(seasons)
+				.where(and(eq(seasons.id, show.seasonId), eq(seasons.venueId, venue.id)))
+		: [];
+	const members = await db
+		.select({ id: users.id, name: users.name, email: users.email, role: memberships.role })
+		.from(memberships)
+		.innerJoin(users, eq(users.id, memberships.personId))
+		.where(eq(memberships.venueId, venue.id))
+		.orderBy(asc(users.name));
+	const tz = venue.timeZone;
+	return {
+		show: {
+			id: show.id,
+			date: show.date,
+			status: show.status,
+			openingNight: show.openingNight,
+			edited: show.edited,
+			notes: show.notes,
+			oneOff: show.seasonId === null,
+			doorsOpen: localTime(show.doorsOpen, tz),
+			doorsClose: localTime(show.doorsClose, tz),
+			crewCall: localTime(show.crewCall, tz)
+		},
+		season: season ?? null,
+		positions: await listPositions(db, venue.id),
+		assignments: here.map((a) => ({
+			...a,
+			call: localTime(a.callOverride ?? show.crewCall, tz),
+			overridden: a.callOverride !== null
+		})),
+		members: members.map((m) => ({ id: m.id, name: m.name ?? m.email })),
+		conflicts: await showConflicts(db, venue.id, show.id),
+		canEdit: PLANNERS.includes(venue.role)
+	};
+};
+
+async function markEdited(
+	showId: string,
+	venueId: string,
+	personId: string,
+	set: Partial<typeof shows.$inferInsert>
+) {
+	const [current] = await db
+		.select({ sequence: shows.sequence })
+		.from(shows)
+		.where(and(eq(shows.id, showId), eq(shows.venueId, venueId)));
+	if (!current) return false;
+	await db
+		.update(shows)
+		.set({
+			...set,
+			edited: true,
+			editedAt: new Date(),
+			editedBy: personId,
+			sequence: current.sequence + 1
+		})
+		.where(and(eq(shows.id, showId), eq(shows.venueId, venueId)));
+	return true;
+}
+
+export const actions: Actions = {
+	times: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const show = await findShow(venue.id, event.params.show);
+		if (!show) return fail(404, { action: 'times', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, showTimesSchema);
+		if (!parsed.ok)
+			return fail(400, { action: 'times', values: keep(parsed.raw), errors: parsed.errors });
+		const { doorsOpen, doorsClose, crewCall, notes } = parsed.data;
+		const tz = venue.timeZone;
+		const open = wallToInstant(show.date, doorsOpen, tz);
+		if (doorsClose === doorsOpen) {
+			return fail(400, {
+				action: 'times',
+				values: keep(parsed.raw),
+				errors: { doorsClose: ['Doors open and close at the same time.'] }
+			});
+		}
+		const close = wallToInstant(
+			doorsClose < doorsOpen ? nextDate(show.date) : show.date,
+			doorsClose,
+			tz
+		);
+		const call = wallToInstant(show.date, crewCall, tz);
+		if (call > open) {
+			return fail(400, {
+				action: 'times',
+				values: keep(parsed.raw),
+				errors: { crewCall: ['Crew call must be at or before doors open.'] }
+			});
+		}
+		await markEdited(show.id, venue.id, event.locals.person!.id, {
+			doorsOpen: open,
+			doorsClose: close,
+			crewCall: call,
+			notes
+		});
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'show.changed',
+			detail: { date: show.date, doorsOpen, doorsClose, crewCall }
+		});
+		return { action: 'times', saved: true };
+	},
+	status: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const show = await findShow(venue.id, event.params.show);
+		if (!show) return fail(404, { action: 'status', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, showStatusSchema);
+		if (!parsed.ok) return fail(400, { action: 'status', message: 'Pick a status.' });
+		await markEdited(show.id, venue.id, event.locals.person!.id, { status: parsed.data.status });
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'show.status',
+			detail: { date: show.date, status: parsed.data.status }
+		});
+		return { action: 'status', saved: true };
+	},
+	assign: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const show = await findShow(venue.id, event.params.show);
+		if (!show) return fail(404, { action: 'assign', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, assignSchema);
+		if (!parsed.ok)
+			return fail(400, { action: 'assign', values: keep(parsed.raw), errors: parsed.errors });
+		const { positionId, personId, call } = parsed.data;
+		const posts = await listPositions(db, venue.id);
+		const post = posts.find((p) => p.id === positionId);
+		if (!post)
+			return fail(400, {
+				action: 'assign',
+				values: keep(parsed.raw),
+				errors: { positionId: ['Pick a position.'] }
+			});
+		const [member] = await db
+			.select({ id: memberships.id })
+			.from(memberships)
+			.where(and(eq(memberships.venueId, venue.id), eq(memberships.personId, personId)));
+		if (!member)
+			return fail(400, {
+				action: 'assign',
+				values: keep(parsed.raw),
+				errors: { personId: ['Pick a member of this venue.'] }
+			});
+		let callOverride: Date | null = null;
+		if (call) {
+			callOverride = wallToInstant(show.date, call, venue.timeZone);
+			if (callOverride >= show.doorsClose) {
+				return fail(400, {
+					action: 'assign',
+					values: keep(parsed.raw),
+					errors: { call: ['The call must be before doors close.'] }
+				});
+			}
+		}
+		const done = await db
+			.insert(assignments)
+			.values({ venueId: venue.id, showId: show.id, positionId, personId, callOverride })
+			.onConflictDoUpdate({
+				target: [assignments.showId, assignments.positionId, assignments.personId],
+				set: { callOverride }
+			})
+			.returning();
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'show.assigned',
+			detail: { date: show.date, position: post.name, person: personId, assignment: done[0].id }
+		});
+		return { action: 'assign', saved: true };
+	},
+	unassign: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const parsed = await parseForm(event.request, idSchema);
+		if (!parsed.ok)
+			return fail(400, { action: 'unassign', message: 'That assignment no longer exists.' });
+		const done = await db
+			.delete(assignments)
+			.where(and(eq(assignments.id, parsed.data.id), eq(assignments.venueId, venue.id)))
+			.returning();
+		if (!done.length)
+			return fail(404, { action: 'unassign', message: 'That assignment no longer exists.' });
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'show.unassigned',
+			detail: { assignment: parsed.data.id }
+		});
+		return { action: 'unassign', saved: true };
+	}
+};
