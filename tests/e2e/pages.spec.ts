@@ -13,6 +13,9 @@ const pages: { role: keyof typeof people | null; path: string; name: string }[] 
 	{ role: 'owner', path: `${TRAIL}/members`, name: 'members' },
 	{ role: 'owner', path: `${TRAIL}/settings`, name: 'settings' },
 	{ role: 'owner', path: `${TRAIL}/activity`, name: 'activity' },
+	{ role: 'owner', path: `${TRAIL}/mail`, name: 'mail-log' },
+	{ role: 'owner', path: `${TRAIL}/mail/preview`, name: 'mail-preview' },
+	{ role: 'manager', path: `${TRAIL}/mail`, name: 'manager-mail-log' },
 	{ role: 'crew', path: TRAIL, name: 'crew-tonight' },
 	{ role: 'crew', path: `${TRAIL}/rooms`, name: 'crew-rooms' },
 	{ role: 'crew', path: `${TRAIL}/members`, name: 'crew-403' },
@@ -37,7 +40,7 @@ for (const theme of ['dusk', 'low-light'] as const) {
 		context,
 		baseURL
 	}) => {
-		test.setTimeout(120_000);
+		test.setTimeout(240_000);
 		await context.addCookies([{ name: 'gloaming-theme', value: theme, url: baseURL! }]);
 		let signedInAs: string | null = null;
 		for (const p of pages) {
