@@ -48,6 +48,9 @@ test('a show manager sees the mail log; crew and designers do not', async ({ pag
 	await page.goto(`${TRAIL}/mail`);
 	await expect(page.getByRole('heading', { name: 'Mail log' })).toBeVisible();
 	await expect(page.getByRole('link', { name: 'Preview templates' })).toHaveCount(0);
+	// Invitations are the owner's: a show manager sees them but cannot send them again.
+	await expect(page.getByText(/^Invitation to /).first()).toBeVisible();
+	await expect(page.getByRole('button', { name: /Send again/ })).toHaveCount(0);
 	const preview = await page.request.get(`${TRAIL}/mail/preview`);
 	expect(preview.status()).toBe(403);
 	await context.clearCookies();

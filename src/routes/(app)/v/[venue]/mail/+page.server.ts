@@ -51,6 +51,9 @@ export const actions: Actions = {
 		if (!parsed.ok) return fail(400, { message: 'That message does not exist.' });
 		const original = await findMail(db, venue.id, parsed.data.id);
 		if (!original) return fail(400, { message: 'That message does not exist.' });
+		// Re-sending an invitation issues a new link to join the venue: that stays with owners.
+		if (original.kind === 'invitation' && venue.role !== 'owner')
+			return fail(403, { message: 'Only an owner can send an invitation again.' });
 		let fresh;
 		try {
 			fresh =
