@@ -5,6 +5,9 @@ import { handle as authHandle } from './auth';
 import { checkConfig } from '$lib/server/config';
 import { closeDb, db } from '$lib/server/db';
 import { applyMigrations } from '$lib/server/migrate';
+import { startMailQueue, stopMailQueue } from '$lib/server/mail/queue';
+import { mailDomain, sendEnvelope } from '$lib/server/mail/transport';
+import { env } from '$env/dynamic/private';
 import { guardHandle } from '$lib/server/hooks/guard';
 import { personHandle } from '$lib/server/hooks/person';
 import { themeHandle } from '$lib/server/hooks/theme';
@@ -14,7 +17,14 @@ export const init: ServerInit = async () => {
 	if (building) return;
 	checkConfig();
 	await applyMigrations(db);
-	process.once('sveltekit:shutdown', () => void closeDb());
+	await startMailQueue({
+		connectionString: env.DATABASE_URL!,
+		db,
+		send: sendEnvelope,
+		domain: mailDomain()
+	});
+	// node build waits for open pools on SIGTERM: close the queue, then the database.
+	process.once('sveltekit:shutdown', () => void stopMailQueue().finally(() => closeDb()));
 };
 
 export const handle: Handle = sequence(

@@ -35,6 +35,9 @@ const pages: {
 		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027'],
 		name: 'show'
 	},
+	{ role: 'owner', path: `${TRAIL}/mail`, name: 'mail-log' },
+	{ role: 'owner', path: `${TRAIL}/mail/preview`, name: 'mail-preview' },
+	{ role: 'manager', path: `${TRAIL}/mail`, name: 'manager-mail-log' },
 	{ role: 'crew', path: TRAIL, name: 'crew-tonight' },
 	{ role: 'crew', path: `${TRAIL}/rooms`, name: 'crew-rooms' },
 	{ role: 'crew', path: `${TRAIL}/my-nights`, name: 'crew-my-nights' },

@@ -1,3 +1,4 @@
 export * from './auth.schema';
 export * from './venues.schema';
 export * from './schedule.schema';
+export * from './mail.schema';

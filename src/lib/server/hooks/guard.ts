@@ -5,7 +5,9 @@ import type { Role } from '$lib/roles';
 export const ROUTE_ROLES: { prefix: string; roles: Role[] }[] = [
 	{ prefix: '/(app)/v/[venue]/members', roles: ['owner'] },
 	{ prefix: '/(app)/v/[venue]/settings', roles: ['owner'] },
-	{ prefix: '/(app)/v/[venue]/activity', roles: ['owner'] }
+	{ prefix: '/(app)/v/[venue]/activity', roles: ['owner'] },
+	{ prefix: '/(app)/v/[venue]/mail/preview', roles: ['owner'] },
+	{ prefix: '/(app)/v/[venue]/mail', roles: ['owner', 'show_manager'] }
 ];
 
 export function rolesForRoute(routeId: string): Role[] | null {

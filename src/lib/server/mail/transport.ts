@@ -1,5 +1,7 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import { config } from '../config';
+import { envelopeSender } from './envelope';
+import type { Envelope } from './outbox';
 
 let transporter: Transporter | null = null;
 
@@ -33,4 +35,14 @@ export async function sendMail(to: string, mail: RenderedMail) {
 		html: mail.html,
 		text: mail.text
 	});
+}
+
+/** Send one queued message (see queue.ts): a fixed Message-ID and any attachments. */
+export function sendEnvelope(mail: Envelope) {
+	return envelopeSender(mailTransport(), config.mailFrom)(mail);
+}
+
+/** The domain part of the sender address, for Message-IDs. */
+export function mailDomain() {
+	return /@([^>\s]+)/.exec(config.mailFrom)?.[1] ?? 'gloaming.mail';
 }

@@ -133,7 +133,7 @@ export async function createInvitation(
 	if (existing) throw new MembershipError(`${email} is already a member of this venue.`);
 	const token = randomBytes(32).toString('base64url');
 	const expiresAt = new Date(now.getTime() + INVITATION_DAYS * 86_400_000);
-	await db.transaction(async (tx) => {
+	const id = await db.transaction(async (tx) => {
 		// A new invitation replaces any open one for the same address.
 		await tx
 			.update(invitations)
@@ -146,22 +146,57 @@ export async function createInvitation(
 					isNull(invitations.revokedAt)
 				)
 			);
-		await tx.insert(invitations).values({
-			venueId,
-			email,
-			role,
-			tokenHash: hashToken(token),
-			invitedBy: actorId,
-			expiresAt
-		});
+		const [row] = await tx
+			.insert(invitations)
+			.values({
+				venueId,
+				email,
+				role,
+				tokenHash: hashToken(token),
+				invitedBy: actorId,
+				expiresAt
+			})
+			.returning({ id: invitations.id });
 		await audit(tx, {
 			venueId,
 			personId: actorId,
 			action: 'invitation.sent',
 			detail: { email, role }
 		});
+		return row.id;
 	});
-	return { token, expiresAt };
+	return { id, token, expiresAt };
+}
+
+/**
+ * A fresh token for an open invitation (for re-sending its e-mail): the old link stops working,
+ * and the expiry starts again. Only the hash is stored, so a re-send cannot reuse the old link.
+ */
+export async function renewInvitationToken(
+	db: Db,
+	venueId: string,
+	invitationId: string,
+	now = new Date()
+) {
+	const token = randomBytes(32).toString('base64url');
+	const expiresAt = new Date(now.getTime() + INVITATION_DAYS * 86_400_000);
+	const [row] = await db
+		.update(invitations)
+		.set({ tokenHash: hashToken(token), expiresAt })
+		.where(
+			and(
+				eq(invitations.id, invitationId),
+				eq(invitations.venueId, venueId),
+				isNull(invitations.acceptedAt),
+				isNull(invitations.revokedAt)
+			)
+		)
+		.returning();
+	if (!row)
+		throw new MembershipError(
+			'That invitation has been accepted or withdrawn, so its e-mail cannot be sent again. Invite the person again instead.'
+		);
+	return { invitation: row, token, expiresAt };
 }
 
 export async function revokeInvitation(

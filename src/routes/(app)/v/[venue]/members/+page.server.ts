@@ -11,7 +11,7 @@ import {
 	removeMember,
 	revokeInvitation
 } from '$lib/server/venues/members';
-import { sendInvitationMail } from '$lib/server/venues/invite-mail';
+import { queueInvitationMail } from '$lib/server/venues/invite-mail';
 import {
 	changeRoleSchema,
 	invitationIdSchema,
@@ -53,19 +53,22 @@ export const actions: Actions = {
 			return refused('invite', e);
 		}
 		try {
-			await sendInvitationMail({
+			await queueInvitationMail(db, {
 				...parsed.data,
+				venueId: venue.id,
+				invitationId: created.id,
 				token: created.token,
 				venueName: venue.name,
 				invitedBy: person.name ?? person.email,
+				invitedById: person.id,
 				expiresAt: created.expiresAt
 			});
 		} catch (e) {
-			console.error('invitation e-mail failed', e);
+			console.error('invitation e-mail could not be queued', e);
 			return fail(503, {
 				action: 'invite',
 				values: keep(parsed.raw),
-				message: `The invitation is saved, but the e-mail to ${parsed.data.email} could not be sent. Try inviting again in a minute.`
+				message: `The invitation is saved, but the e-mail to ${parsed.data.email} could not be queued. Try inviting again in a minute.`
 			});
 		}
 		return { action: 'invite', sentTo: parsed.data.email };

@@ -1,0 +1,121 @@
+import { COLOURS, button, escapeHtml, facts, frame, heading, list, textHeading } from './layout';
+
+export type RunSheetWarning =
+	| { kind: 'strobe' | 'fog' | 'pneumatics'; note?: string }
+	| { kind: 'stood_down'; prop: string; reason: string };
+
+export interface RunSheetScene {
+	name: string;
+	room: string;
+	/** One line per cue, already summarised ("0:04 pulse the drop valve 0.3 s"). */
+	cues: string[];
+	warnings: RunSheetWarning[];
+}
+
+export interface RunSheetData {
+	venueName: string;
+	address: string | null;
+	/** Local date and times, already formatted in the venue's time zone. */
+	dateLabel: string;
+	crewCall: string;
+	doors: string;
+	timeZone: string;
+	person: { name: string };
+	position: string;
+	rooms: string[];
+	scenes: RunSheetScene[];
+	checklist: { room: string | null; item: string }[];
+	safetyContacts: { name: string; role: string | null; phone: string }[];
+	showStop: string[];
+	/** The web version of this run sheet. */
+	url?: string;
+}
+
+const WARNING_WORDS = {
+	strobe: 'Strobe: photosensitivity signage must be up',
+	fog: 'Fog: check detectors and ventilation',
+	pneumatics: 'Pneumatics: keep clear of moving parts'
+} as const;
+
+export function warningText(w: RunSheetWarning): string {
+	if (w.kind === 'stood_down') return `Stood down tonight: ${w.prop} (${w.reason})`;
+	return w.note ? `${WARNING_WORDS[w.kind]} (${w.note})` : WARNING_WORDS[w.kind];
+}
+
+export function runSheetSubject(d: Pick<RunSheetData, 'venueName' | 'dateLabel'>) {
+	return `Run sheet for ${d.dateLabel} at ${d.venueName}`;
+}
+
+export function renderRunSheet(d: RunSheetData) {
+	const subject = runSheetSubject(d);
+	const when: [string, string][] = [
+		['Date', d.dateLabel],
+		['Crew call', `${d.crewCall} (${d.timeZone})`],
+		['Doors', d.doors],
+		['Position', d.position],
+		['Rooms', d.rooms.join(', ') || 'None']
+	];
+	if (d.address) when.splice(1, 0, ['Where', d.address]);
+
+	const sceneHtml = d.scenes
+		.map((s) => {
+			const warnings = s.warnings.length
+				? `<table role="presentation" cellpadding="0" cellspacing="0" width="100%" style="margin:0 0 8px;border-left:4px solid ${COLOURS.ember};"><tr><td style="padding:6px 10px;color:${COLOURS.ember};font-weight:bold;">${s.warnings.map((w) => escapeHtml(warningText(w))).join('<br>')}</td></tr></table>`
+				: '';
+			return `<table role="presentation" cellpadding="0" cellspacing="0" width="100%" style="margin:0 0 12px;border:1px solid ${COLOURS.edge};border-radius:8px;"><tr><td style="padding:10px 12px;">
+<p style="margin:0 0 6px;font-weight:bold;">${escapeHtml(s.name)} <span style="font-weight:normal;color:${COLOURS.muted};">· ${escapeHtml(s.room)}</span></p>
+${warnings}${s.cues.length ? list(s.cues) : `<p style="margin:0;color:${COLOURS.muted};">No timed cues.</p>`}
+</td></tr></table>`;
+		})
+		.join('');
+
+	const checklist = d.checklist.map((c) => (c.room ? `${c.room}: ${c.item}` : c.item));
+	const contacts = d.safetyContacts.map(
+		(c) => `${c.name}${c.role ? ` (${c.role})` : ''}: ${c.phone}`
+	);
+
+	const html = frame(
+		subject,
+		`<p style="margin:0 0 12px;">${escapeHtml(d.person.name)}, here is your run sheet for ${escapeHtml(d.venueName)}.</p>
+${facts(when)}
+${d.url ? button(d.url, 'Open the run sheet') : ''}
+${heading('Scenes in your rooms')}
+${sceneHtml || `<p style="margin:0;color:${COLOURS.muted};">No scenes run in your rooms tonight.</p>`}
+${heading('Your checks before doors')}
+${checklist.length ? list(checklist) : `<p style="margin:0;color:${COLOURS.muted};">No checks assigned to you.</p>`}
+${heading('Safety contacts')}
+${contacts.length ? list(contacts) : `<p style="margin:0;color:${COLOURS.muted};">Ask the show manager.</p>`}
+${heading('Show stop')}
+${list(d.showStop, true)}
+<p style="margin:16px 0 0;color:${COLOURS.muted};font-size:14px;">Local codes and the authority having jurisdiction come first. If in doubt, stop the show.</p>`
+	);
+
+	const sceneText = d.scenes
+		.map((s) =>
+			[
+				`* ${s.name} (${s.room})`,
+				...s.warnings.map((w) => `  ! ${warningText(w)}`),
+				...(s.cues.length ? s.cues.map((c) => `  - ${c}`) : ['  - No timed cues.'])
+			].join('\n')
+		)
+		.join('\n');
+	const text = `${d.person.name}, here is your run sheet for ${d.venueName}.
+
+${when.map(([k, v]) => `${k}: ${v}`).join('\n')}
+${d.url ? `\nOpen the run sheet: ${d.url}\n` : ''}
+${textHeading('Scenes in your rooms')}
+${sceneText || 'No scenes run in your rooms tonight.'}
+
+${textHeading('Your checks before doors')}
+${checklist.length ? checklist.map((c) => `[ ] ${c}`).join('\n') : 'No checks assigned to you.'}
+
+${textHeading('Safety contacts')}
+${contacts.length ? contacts.join('\n') : 'Ask the show manager.'}
+
+${textHeading('Show stop')}
+${d.showStop.map((s, i) => `${i + 1}. ${s}`).join('\n')}
+
+Local codes and the authority having jurisdiction come first. If in doubt, stop the show.
+`;
+	return { subject, html, text };
+}

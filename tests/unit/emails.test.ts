@@ -1,0 +1,83 @@
+import { describe, expect, it } from 'vitest';
+import { demoMails, demoRunSheet, demoScheduleChange } from '../../emails/demo';
+import { renderRunSheet, warningText } from '../../emails/run-sheet';
+import { renderScheduleChange } from '../../emails/schedule-change';
+
+const origin = 'https://gloaming.example';
+
+describe('run sheet e-mail', () => {
+	const d = demoRunSheet('Hollow Pines Trail', origin);
+	const { subject, html, text } = renderRunSheet(d);
+
+	it('carries the night, the post and every section in both parts', () => {
+		expect(subject).toBe('Run sheet for Saturday 31 October 2026 at Hollow Pines Trail');
+		for (const part of [html, text]) {
+			for (const s of [
+				'17:30',
+				'19:00',
+				'Room tech, Crow Loft',
+				'14 Lantern Lane, Ashcombe',
+				'Feathers fall',
+				'pulse the drop valve',
+				'Fog fluid above the line',
+				'Ide Brannock',
+				'Show stop',
+				'stop button'
+			])
+				expect(part).toContain(s);
+		}
+	});
+
+	it('flags strobe, fog, pneumatics and stood-down props', () => {
+		expect(warningText({ kind: 'strobe', note: '4 flashes per second' })).toMatch(/^Strobe/);
+		expect(warningText({ kind: 'stood_down', prop: 'Plate', reason: 'cracked' })).toBe(
+			'Stood down tonight: Plate (cracked)'
+		);
+		expect(text).toContain('! Fog');
+		expect(text).toContain('! Pneumatics');
+		expect(text).toContain('! Stood down tonight: Root hand plate');
+		expect(html).toContain('Stood down tonight: Root hand plate');
+	});
+
+	it('escapes what people typed and keeps to inline styles and tables', () => {
+		const evil = renderRunSheet({ ...d, person: { name: '<script>x</script>' } });
+		expect(evil.html).not.toContain('<script>');
+		expect(evil.html).toContain('&#60;script&#62;');
+		expect(html).not.toMatch(/<style|<link|class=/);
+		expect(html).toContain('<table');
+	});
+
+	it('says so when a crew member has no scenes or checks', () => {
+		const empty = renderRunSheet({ ...d, scenes: [], checklist: [], safetyContacts: [] });
+		expect(empty.text).toContain('No scenes run in your rooms tonight.');
+		expect(empty.text).toContain('No checks assigned to you.');
+	});
+});
+
+describe('schedule change e-mail', () => {
+	it('shows each change with what it was and what it is now', () => {
+		const { subject, html, text } = renderScheduleChange(
+			demoScheduleChange('Hollow Pines Trail', origin)
+		);
+		expect(subject).toBe('Schedule change for Saturday 31 October 2026 at Hollow Pines Trail');
+		expect(text).toContain('Crew call: 17:00 (was 17:30)');
+		expect(html).toContain('line-through');
+		expect(html).toContain('Room tech, Crow Loft');
+	});
+});
+
+describe('template preview data', () => {
+	it('renders all four templates, each with HTML and plain text', () => {
+		const mails = demoMails('Hollow Pines Trail', origin);
+		expect(mails.map((m) => m.id)).toEqual([
+			'sign-in-link',
+			'invitation',
+			'run-sheet',
+			'schedule-change'
+		]);
+		for (const m of mails) {
+			expect(m.mail.html).toMatch(/^<!doctype html>/);
+			expect(m.mail.text.length).toBeGreaterThan(40);
+		}
+	});
+});
