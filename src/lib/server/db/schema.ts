@@ -1,2 +1,3 @@
 export * from './auth.schema';
 export * from './venues.schema';
+export * from './props.schema';
