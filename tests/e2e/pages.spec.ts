@@ -3,7 +3,23 @@ import { expect, test, type Page } from '@playwright/test';
 import { GALLERY, TRAIL, people, signIn } from './support';
 
 // Every page, as the roles that can see it, at desktop and phone widths.
-const pages: { role: keyof typeof people | null; path: string; name: string }[] = [
+type PagePath = string | ((page: Page) => Promise<string>);
+
+/** Demo props have generated ids: find a page by following links from the props table. */
+function demoPage(prop: string, child?: string): PagePath {
+	return async (page) => {
+		await page.goto(`${TRAIL}/props?q=${encodeURIComponent(prop)}`);
+		await page.getByRole('link', { name: prop, exact: true }).click();
+		await expect(page.getByRole('heading', { level: 1, name: prop })).toBeVisible();
+		if (child) {
+			await page.getByRole('link', { name: child, exact: true }).click();
+			await expect(page.getByRole('heading', { level: 1, name: child })).toBeVisible();
+		}
+		return new URL(page.url()).pathname;
+	};
+}
+
+const pages: { role: keyof typeof people | null; path: PagePath; name: string }[] = [
 	{ role: null, path: '/sign-in', name: 'sign-in' },
 	{ role: null, path: '/sign-in/check-email', name: 'check-email' },
 	{ role: null, path: '/invitations/unknown-token', name: 'invitation-bad' },
@@ -13,8 +29,17 @@ const pages: { role: keyof typeof people | null; path: string; name: string }[] 
 	{ role: 'owner', path: `${TRAIL}/members`, name: 'members' },
 	{ role: 'owner', path: `${TRAIL}/settings`, name: 'settings' },
 	{ role: 'owner', path: `${TRAIL}/activity`, name: 'activity' },
+	{ role: 'owner', path: `${TRAIL}/props`, name: 'props' },
+	{ role: 'owner', path: `${TRAIL}/props/new`, name: 'prop-new' },
+	{ role: 'owner', path: `${TRAIL}/controllers`, name: 'controllers' },
+	{ role: 'owner', path: demoPage('Hand in the well'), name: 'prop' },
+	{ role: 'owner', path: demoPage('Hand in the well', 'Well-lip plate'), name: 'sensor' },
+	{ role: 'owner', path: demoPage('Hand in the well', 'Warm lanterns'), name: 'output-led' },
+	{ role: 'owner', path: demoPage('Barn-loft drop', 'Drop valve'), name: 'output-relay' },
 	{ role: 'crew', path: TRAIL, name: 'crew-tonight' },
 	{ role: 'crew', path: `${TRAIL}/rooms`, name: 'crew-rooms' },
+	{ role: 'crew', path: `${TRAIL}/props`, name: 'crew-props' },
+	{ role: 'crew', path: demoPage('Orchard mist'), name: 'crew-prop' },
 	{ role: 'crew', path: `${TRAIL}/members`, name: 'crew-403' },
 	{ role: 'crew', path: GALLERY, name: 'crew-404' }
 ];
@@ -37,7 +62,7 @@ for (const theme of ['dusk', 'low-light'] as const) {
 		context,
 		baseURL
 	}) => {
-		test.setTimeout(120_000);
+		test.setTimeout(480_000);
 		await context.addCookies([{ name: 'gloaming-theme', value: theme, url: baseURL! }]);
 		let signedInAs: string | null = null;
 		for (const p of pages) {
@@ -47,9 +72,10 @@ for (const theme of ['dusk', 'low-light'] as const) {
 				if (p.role) await signIn(page, people[p.role]);
 				signedInAs = p.role;
 			}
+			const path = typeof p.path === 'string' ? p.path : await p.path(page);
 			for (const width of [1280, 390]) {
 				await page.setViewportSize({ width, height: width === 390 ? 844 : 800 });
-				await page.goto(p.path);
+				await page.goto(path);
 				await expect(page.locator('h1').first()).toBeVisible();
 				await checkA11y(page);
 				await page.screenshot({

@@ -3,6 +3,7 @@ import type { Role } from '../roles';
 import type { Db } from './db/client';
 import { memberships, rooms, users, venues } from './db/schema';
 import { hashPassword } from './auth/password';
+import { seedDemoProps } from './demo-props';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
 export const DEMO_PASSWORD = 'lantern-demo-2026';
@@ -82,6 +83,7 @@ export async function seedDemo(db: Db) {
 			if (!existing.length)
 				await db.insert(memberships).values({ venueId: venue.id, personId: ids[key], role });
 		}
+		await seedDemoProps(db, venue.id, v.slug);
 	}
 	return ids;
 }
