@@ -15,7 +15,14 @@ const appEnv = {
 	PORT: String(t.appPort),
 	SMTP_HOST: '127.0.0.1',
 	SMTP_PORT: String(t.smtpPort),
-	MAIL_WEB_PORT: String(t.mailWebPort)
+	MAIL_WEB_PORT: String(t.mailWebPort),
+	S3_ENDPOINT: `http://127.0.0.1:${t.s3Port}`,
+	S3_PORT: String(t.s3Port),
+	S3_DIR: t.s3Dir,
+	S3_BUCKET: 'gloaming',
+	S3_ACCESS_KEY_ID: 'S3RVER',
+	S3_SECRET_ACCESS_KEY: 'S3RVER',
+	BODY_SIZE_LIMIT: '52M'
 };
 
 export default defineConfig({
@@ -52,6 +59,12 @@ export default defineConfig({
 		{
 			command: 'node --import tsx scripts/mail-catcher.ts',
 			url: `http://127.0.0.1:${t.mailWebPort}/api/messages`,
+			env: appEnv,
+			reuseExistingServer: false
+		},
+		{
+			command: 'node --import tsx scripts/object-store.ts',
+			port: t.s3Port,
 			env: appEnv,
 			reuseExistingServer: false
 		},

@@ -31,7 +31,8 @@ const env = {
 	S3_DIR: ports.s3Dir,
 	S3_BUCKET: process.env.S3_BUCKET ?? 'gloaming',
 	S3_ACCESS_KEY_ID: process.env.S3_ACCESS_KEY_ID ?? 'S3RVER',
-	S3_SECRET_ACCESS_KEY: process.env.S3_SECRET_ACCESS_KEY ?? 'S3RVER'
+	S3_SECRET_ACCESS_KEY: process.env.S3_SECRET_ACCESS_KEY ?? 'S3RVER',
+	BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '52M'
 };
 
 let stopping = false;

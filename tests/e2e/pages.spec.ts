@@ -3,10 +3,27 @@ import { expect, test, type Page } from '@playwright/test';
 import { GALLERY, TRAIL, people, signIn } from './support';
 
 // Every page, as the roles that can see it, at desktop and phone widths.
-// `follow` names links to click from `path`, for pages whose address holds a generated id.
+// `follow` names links to click from `path`, for pages whose address holds a generated id;
+// a function path finds its page itself.
+type PagePath = string | ((page: Page) => Promise<string>);
+
+/** Demo props have generated ids: find a page by following links from the props table. */
+function demoPage(prop: string, child?: string): PagePath {
+	return async (page) => {
+		await page.goto(`${TRAIL}/props?q=${encodeURIComponent(prop)}`);
+		await page.getByRole('link', { name: prop, exact: true }).click();
+		await expect(page.getByRole('heading', { level: 1, name: prop })).toBeVisible();
+		if (child) {
+			await page.getByRole('link', { name: child, exact: true }).click();
+			await expect(page.getByRole('heading', { level: 1, name: child })).toBeVisible();
+		}
+		return new URL(page.url()).pathname;
+	};
+}
+
 const pages: {
 	role: keyof typeof people | null;
-	path: string;
+	path: PagePath;
 	name: string;
 	follow?: string[];
 }[] = [
@@ -42,6 +59,15 @@ const pages: {
 	{ role: 'crew', path: `${TRAIL}/rooms`, name: 'crew-rooms' },
 	{ role: 'crew', path: `${TRAIL}/my-nights`, name: 'crew-my-nights' },
 	{ role: 'crew', path: `${TRAIL}/calendar?date=2027-10-01`, name: 'crew-calendar' },
+	{ role: 'owner', path: `${TRAIL}/props`, name: 'props' },
+	{ role: 'owner', path: `${TRAIL}/props/new`, name: 'prop-new' },
+	{ role: 'owner', path: `${TRAIL}/controllers`, name: 'controllers' },
+	{ role: 'owner', path: demoPage('Hand in the well'), name: 'prop' },
+	{ role: 'owner', path: demoPage('Hand in the well', 'Well-lip plate'), name: 'sensor' },
+	{ role: 'owner', path: demoPage('Hand in the well', 'Warm lanterns'), name: 'output-led' },
+	{ role: 'owner', path: demoPage('Barn-loft drop', 'Drop valve'), name: 'output-relay' },
+	{ role: 'crew', path: `${TRAIL}/props`, name: 'crew-props' },
+	{ role: 'crew', path: demoPage('Orchard mist'), name: 'crew-prop' },
 	{ role: 'crew', path: `${TRAIL}/members`, name: 'crew-403' },
 	{ role: 'crew', path: GALLERY, name: 'crew-404' }
 ];
@@ -83,7 +109,7 @@ for (const theme of ['dusk', 'low-light'] as const) {
 			});
 			await context.addCookies([{ name: 'gloaming-theme', value: theme, url: baseURL! }]);
 			const page = await context.newPage();
-			let path = p.path;
+			let path = typeof p.path === 'string' ? p.path : await p.path(page);
 			if (p.follow) {
 				await page.goto(path);
 				for (const name of p.follow) {

@@ -1,4 +1,6 @@
 import type { TestProject } from 'vitest/node';
+import { rmSync } from 'node:fs';
+import S3rver from 's3rver';
 import { createDb } from '../../src/lib/server/db/client';
 import { applyMigrations } from '../../src/lib/server/migrate';
 import { LOCAL } from '../../scripts/lib/ports.mjs';
@@ -18,10 +20,28 @@ export default async function setup(project: TestProject) {
 	await applyMigrations(db);
 	await sql.end();
 	project.provide('databaseUrl', url);
+
+	// The uploads tests need the object-store fake too; it runs inside this process.
+	const s3Port = LOCAL.test.s3Port;
+	const s3Dir = '.data/objects-it';
+	rmSync(s3Dir, { recursive: true, force: true });
+	const s3 = new S3rver({
+		port: s3Port,
+		address: '127.0.0.1',
+		directory: s3Dir,
+		silent: true,
+		configureBuckets: [{ name: 'gloaming-it', configs: [] }]
+	});
+	await s3.run();
+	project.provide('s3Endpoint', `http://127.0.0.1:${s3Port}`);
+	return async () => {
+		await s3.close();
+	};
 }
 
 declare module 'vitest' {
 	export interface ProvidedContext {
 		databaseUrl: string;
+		s3Endpoint: string;
 	}
 }

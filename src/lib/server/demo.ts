@@ -13,6 +13,7 @@ import {
 } from './db/schema';
 import { regenerateShows } from './schedule/seasons';
 import { hashPassword } from './auth/password';
+import { seedDemoProps } from './demo-props';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
 export const DEMO_PASSWORD = 'lantern-demo-2026';
@@ -92,6 +93,7 @@ export async function seedDemo(db: Db) {
 			if (!existing.length)
 				await db.insert(memberships).values({ venueId: venue.id, personId: ids[key], role });
 		}
+		await seedDemoProps(db, venue.id, v.slug);
 	}
 	await seedSchedule(db, ids);
 	return ids;

@@ -2,3 +2,4 @@ export * from './auth.schema';
 export * from './venues.schema';
 export * from './schedule.schema';
 export * from './mail.schema';
+export * from './props.schema';

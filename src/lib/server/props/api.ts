@@ -1,0 +1,23 @@
+import { json } from '@sveltejs/kit';
+import type { z } from 'zod';
+import { errorsByPath } from './form';
+
+/** Read and check a JSON body; a bad one is a 400 with the problems by field, never a 500. */
+export async function readJson<T extends z.ZodType>(request: Request, schema: T) {
+	const body = await request.json().catch(() => undefined);
+	if (body === undefined)
+		return {
+			ok: false as const,
+			response: json({ message: 'Send a JSON body.' }, { status: 400 })
+		};
+	const result = schema.safeParse(body);
+	if (!result.success)
+		return {
+			ok: false as const,
+			response: json(
+				{ message: 'Some fields need fixing.', errors: errorsByPath(result.error) },
+				{ status: 400 }
+			)
+		};
+	return { ok: true as const, data: result.data as z.infer<T> };
+}

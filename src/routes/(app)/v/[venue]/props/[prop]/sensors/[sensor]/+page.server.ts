@@ -1,0 +1,126 @@
+import { error, fail } from '@sveltejs/kit';
+import { and, desc, eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { EDITORS, requireRole } from '$lib/server/auth/guard';
+import { audit } from '$lib/server/audit';
+import { db } from '$lib/server/db';
+import { captures, sensors } from '$lib/server/db/schema';
+import { parseForm } from '$lib/server/forms';
+import { parseNestedForm } from '$lib/server/props/form';
+import { getController, getProp, isUuid } from '$lib/server/props/queries';
+import { sensorFormValues, sensorValues, touchProp } from '$lib/server/props/records';
+import type { StoredCaptureSummary } from '$lib/server/props/uploads';
+import { sensorSchema } from '$lib/schemas/sensor';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
+
+async function find(event: RequestEvent | Parameters<PageServerLoad>[0], venueId: string) {
+	const prop = await getProp(db, venueId, event.params.prop);
+	if (!prop || !isUuid(event.params.sensor)) error(404, 'There is no such sensor in this venue.');
+	const [sensor] = await db
+		.select()
+		.from(sensors)
+		.where(
+			and(
+				eq(sensors.id, event.params.sensor),
+				eq(sensors.venueId, venueId),
+				eq(sensors.propId, prop.id)
+			)
+		);
+	if (!sensor) error(404, 'There is no such sensor in this venue.');
+	return { prop, sensor };
+}
+
+export const load: PageServerLoad = async (event) => {
+	const venue = requireRole(event);
+	const { prop, sensor } = await find(event, venue.id);
+	const [controller, list] = await Promise.all([
+		getController(db, venue.id, prop.controllerId),
+		db
+			.select()
+			.from(captures)
+			.where(and(eq(captures.venueId, venue.id), eq(captures.sensorId, sensor.id)))
+			.orderBy(desc(captures.uploadedAt))
+	]);
+	const wanted = event.url.searchParams.get('capture');
+	const shown = list.find((c) => c.id === wanted) ?? list[0] ?? null;
+	return {
+		prop,
+		sensor,
+		formValues: sensorFormValues(sensor),
+		controller,
+		captures: list.map((c) => ({
+			id: c.id,
+			filename: c.filename,
+			sizeBytes: c.sizeBytes,
+			sha256: c.sha256,
+			rows: c.rows,
+			idleRows: c.idleRows,
+			presentRows: c.presentRows,
+			uploadedAt: c.uploadedAt,
+			idleMean: (c.summary as unknown as StoredCaptureSummary).idle.mean,
+			idleSigma: (c.summary as unknown as StoredCaptureSummary).idle.sigma
+		})),
+		shown: shown
+			? {
+					id: shown.id,
+					filename: shown.filename,
+					summary: shown.summary as unknown as StoredCaptureSummary
+				}
+			: null,
+		canEdit: EDITORS.includes(venue.role)
+	};
+};
+
+export const actions: Actions = {
+	save: async (event) => {
+		const venue = requireRole(event, ...EDITORS);
+		const { prop, sensor } = await find(event, venue.id);
+		const parsed = await parseNestedForm(event.request, sensorSchema);
+		if (!parsed.ok) return fail(400, { action: 'save', values: parsed.raw, errors: parsed.errors });
+		await db
+			.update(sensors)
+			.set(sensorValues(parsed.data))
+			.where(and(eq(sensors.id, sensor.id), eq(sensors.venueId, venue.id)));
+		await touchProp(db, venue.id, prop.id);
+		return { action: 'save', saved: true };
+	},
+	apply: async (event) => {
+		const venue = requireRole(event, ...EDITORS);
+		const { prop, sensor } = await find(event, venue.id);
+		const parsed = await parseForm(event.request, z.object({ captureId: z.uuid() }));
+		if (!parsed.ok) return fail(400, { action: 'apply', message: 'Choose a capture first.' });
+		const [capture] = await db
+			.select()
+			.from(captures)
+			.where(
+				and(
+					eq(captures.id, parsed.data.captureId),
+					eq(captures.venueId, venue.id),
+					eq(captures.sensorId, sensor.id)
+				)
+			);
+		const cal = (capture?.summary as unknown as StoredCaptureSummary | undefined)?.calibration;
+		if (!cal)
+			return fail(400, {
+				action: 'apply',
+				message: 'That capture has no calibration: it needs both idle and present readings.'
+			});
+		const range = {
+			near: cal.depth.near,
+			far: cal.depth.far,
+			hysteresis: Math.abs(cal.enter - cal.exit)
+		};
+		await db
+			.update(sensors)
+			.set(range)
+			.where(and(eq(sensors.id, sensor.id), eq(sensors.venueId, venue.id)));
+		await touchProp(db, venue.id, prop.id);
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'sensor.calibrated',
+			detail: { sensor: sensor.name, capture: capture.filename, ...range }
+		});
+		return { action: 'apply', applied: true };
+	}
+};

@@ -1,0 +1,100 @@
+import { expect, test } from '@playwright/test';
+import { TRAIL, people, signIn } from './support';
+
+/** A small capture: idle readings near 100 counts, present near 160, ten readings a second. */
+function captureCsv(rows = 400) {
+	const lines = ['time,reading,label'];
+	for (let i = 0; i < rows; i++) {
+		const present = i >= rows / 2;
+		const wobble = ((i * 37) % 9) - 4;
+		lines.push(
+			`${(i / 10).toFixed(1)},${(present ? 160 : 100) + wobble},${present ? 'present' : 'idle'}`
+		);
+	}
+	return lines.join('\n') + '\n';
+}
+
+test('a designer registers a capacitive prop with an LED string, calibrates it and downloads the level table', async ({
+	page
+}) => {
+	test.setTimeout(60_000);
+	await signIn(page, people.designer);
+	await page.goto(`${TRAIL}/props`);
+	await page.getByRole('link', { name: 'New prop' }).click();
+	await page.getByRole('button', { name: 'Register prop' }).click();
+	await expect(page.getByText('Give a name.')).toBeVisible();
+	await page.getByLabel('Name').fill('Raven perch');
+	await page.getByLabel('Room').selectOption({ label: 'Gatehouse' });
+	await page.getByLabel('Controller').selectOption({ label: 'Lantern board A' });
+	await page.getByRole('button', { name: 'Register prop' }).click();
+	await expect(page.getByRole('heading', { level: 1, name: 'Raven perch' })).toBeVisible();
+
+	// Sensor: the plate maths follow the typing.
+	await page.getByText('Add a sensor').click();
+	await page.getByLabel('Sensor name').fill('Perch plate');
+	const plate = page.getByTestId('plate-pf');
+	await expect(plate).toContainText('pF');
+	const before = await plate.textContent();
+	await page.getByLabel('Gap to the hand').fill('5');
+	await expect(plate).not.toHaveText(before!);
+	await expect(page.getByText('Estimate:')).toBeVisible();
+	await page.getByRole('button', { name: 'Add sensor' }).click();
+	await expect(page.getByRole('link', { name: 'Perch plate' })).toBeVisible();
+
+	// Output: an LED string, with the resistor worked out.
+	await page.getByText('Add an output').click();
+	await page.getByLabel('Output name').fill('Perch glow');
+	await page.getByRole('button', { name: 'Add output' }).click();
+	await expect(page.getByText('Choose what it does on alarm or stop.')).toBeVisible();
+	await expect(page.getByLabel('Output name')).toHaveValue('Perch glow');
+	await page.getByLabel('Safe state').selectOption({ label: 'Lights to full' });
+	await expect(page.getByTestId('resistor-snapped')).toContainText('E24');
+	await page.getByRole('button', { name: 'Add output' }).click();
+	await expect(page.getByRole('link', { name: 'Perch glow' })).toBeVisible();
+
+	// Capture: a bad file is refused with its line; a good one calibrates.
+	await page.getByRole('link', { name: 'Perch plate' }).click();
+	const upload = page.getByLabel('Upload a capture (CSV)');
+	await upload.setInputFiles({
+		name: 'broken.csv',
+		mimeType: 'text/csv',
+		buffer: Buffer.from('time,reading,label\n0,100,idle\n0.1,abc,idle\n')
+	});
+	await expect(page.getByText(/Line 3: reading 'abc' is not a number/)).toBeVisible();
+	await upload.setInputFiles({
+		name: 'perch-evening.csv',
+		mimeType: 'text/csv',
+		buffer: Buffer.from(captureCsv())
+	});
+	await expect(page.getByText('perch-evening.csv uploaded.')).toBeVisible();
+	await expect(page.getByTestId('calibration')).toContainText('Separation');
+	await page.getByRole('button', { name: 'Apply suggested trigger range' }).click();
+	await expect(page.getByText('Suggested trigger range applied.')).toBeVisible();
+	await expect(page.getByTestId('trigger-range')).not.toContainText('—');
+
+	// Output page: the level table downloads.
+	await page.getByRole('link', { name: '← Raven perch' }).click();
+	await page.getByRole('link', { name: 'Perch glow' }).click();
+	await expect(page.getByTestId('flicker')).toContainText('IEEE 1789');
+	const [download] = await Promise.all([
+		page.waitForEvent('download'),
+		page.getByRole('link', { name: 'Download C array (.h)' }).click()
+	]);
+	expect(download.suggestedFilename()).toBe('perch-glow-levels.h');
+	const json = await (await page.request.get(page.url() + '/level-table.json')).json();
+	expect(json.counts).toHaveLength(256);
+	expect(json.counts[255]).toBe(255); // 8-bit PWM on the demo board
+});
+
+test('crew can read props but not change them', async ({ page }) => {
+	await signIn(page, people.crew);
+	await page.goto(`${TRAIL}/props`);
+	await expect(page.getByRole('link', { name: 'Hand in the well' })).toBeVisible();
+	await expect(page.getByRole('link', { name: 'New prop' })).toHaveCount(0);
+	const res = await page.request.get(`${TRAIL}/props/new`);
+	expect(res.status()).toBe(403);
+	const api = await page.request.post(`/api/v/hollow-pines-trail/props`, {
+		data: { name: 'Sneaky' }
+	});
+	expect(api.status()).toBe(403);
+});
