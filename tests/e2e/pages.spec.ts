@@ -40,7 +40,7 @@ for (const theme of ['dusk', 'low-light'] as const) {
 		context,
 		baseURL
 	}) => {
-		test.setTimeout(240_000);
+		test.setTimeout(360_000);
 		await context.addCookies([{ name: 'gloaming-theme', value: theme, url: baseURL! }]);
 		let signedInAs: string | null = null;
 		for (const p of pages) {
