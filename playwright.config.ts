@@ -28,7 +28,7 @@ const appEnv = {
 export default defineConfig({
 	testDir: 'tests/e2e',
 	fullyParallel: false,
-	workers: 1,
+	workers: 2,
 	retries: 0,
 	timeout: 30_000,
 	reporter: [['list']],
@@ -49,9 +49,20 @@ export default defineConfig({
 			]
 		}
 	},
+	// The page checks only read, so they run two at a time; the journeys change data and run one
+	// at a time, after them.
 	projects: [
 		{
-			name: 'chromium',
+			name: 'pages',
+			testMatch: /pages\.spec\.ts/,
+			fullyParallel: true,
+			use: { ...devices['Desktop Chrome'], viewport: { width: 1280, height: 800 } }
+		},
+		{
+			name: 'journeys',
+			testIgnore: /pages\.spec\.ts/,
+			dependencies: ['pages'],
+			workers: 1,
 			use: { ...devices['Desktop Chrome'], viewport: { width: 1280, height: 800 } }
 		}
 	],

@@ -117,7 +117,8 @@ for (const theme of ['dusk', 'low-light'] as const) {
 					await page.goto(path);
 				}
 			}
-			for (const width of [1280, 390]) {
+			// Low-light changes colours, not layout: one width is enough there.
+			for (const width of theme === 'dusk' ? [1280, 390] : [1280]) {
 				await page.setViewportSize({ width, height: width === 390 ? 844 : 800 });
 				await page.goto(path);
 				await expect(page.locator('h1').first()).toBeVisible();
@@ -131,41 +132,3 @@ for (const theme of ['dusk', 'low-light'] as const) {
 		});
 	}
 }
-
-test('low-light mode persists in a cookie and is rendered by the server', async ({ page }) => {
-	await signIn(page, people.crew);
-	await expect(page.locator('html')).toHaveAttribute('data-theme', 'dusk');
-	await Promise.all([
-		page.waitForResponse((r) => r.url().endsWith('/theme')),
-		page.getByRole('button', { name: 'Low-light' }).click()
-	]);
-	await expect(page.locator('html')).toHaveAttribute('data-theme', 'low-light');
-	const html = await (await page.request.get(TRAIL)).text();
-	expect(html).toContain('data-theme="low-light"');
-	await page.reload();
-	await expect(page.locator('html')).toHaveAttribute('data-theme', 'low-light');
-	await expect(page.locator('body')).toHaveCSS('background-color', 'rgb(0, 0, 0)');
-});
-
-test('a room can be added, renamed and removed, and bad input is explained', async ({ page }) => {
-	await signIn(page, people.designer);
-	await page.goto(`${TRAIL}/rooms`);
-	await page.getByRole('button', { name: 'Add room' }).click();
-	await expect(page.getByText('Name the room.')).toBeVisible();
-	await page.getByLabel('Name', { exact: true }).fill('Gatehouse');
-	await page.getByRole('button', { name: 'Add room' }).click();
-	await expect(page.getByText('This venue already has a room with that name.')).toBeVisible();
-	await page.getByLabel('Name', { exact: true }).fill('Crow Loft');
-	await page.getByRole('button', { name: 'Add room' }).click();
-	await expect(page.getByText('Crow Loft')).toBeVisible();
-	await page.getByRole('button', { name: 'Rename Crow Loft' }).click();
-	const editing = page
-		.getByRole('listitem')
-		.filter({ has: page.getByRole('button', { name: 'Save' }) });
-	await editing.getByLabel('Name').fill('Raven Loft');
-	await editing.getByRole('button', { name: 'Save' }).click();
-	await expect(page.getByText('Raven Loft')).toBeVisible();
-	page.once('dialog', (d) => d.accept());
-	await page.getByRole('button', { name: 'Remove Raven Loft' }).click();
-	await expect(page.getByText('Raven Loft')).toHaveCount(0);
-});

@@ -37,7 +37,9 @@ test('schedule opening nights: a season of Fridays and Saturdays, the calendar, 
 	await expect(page.getByText('crew call 17:00 · doors 19:00–23:00')).toBeVisible();
 	await expect(page.getByText(/is required and nobody is assigned/).first()).toBeVisible();
 
-	await page.getByLabel('Position', { exact: true }).selectOption({ label: 'Room tech, Gatehouse' });
+	await page
+		.getByLabel('Position', { exact: true })
+		.selectOption({ label: 'Room tech, Gatehouse' });
 	await page.getByLabel('Crew member').selectOption({ label: 'Sully Fenwick' });
 	await page.getByRole('button', { name: 'Assign' }).click();
 	await expect(page.getByText('Sully Fenwick · call 17:00')).toBeVisible();
