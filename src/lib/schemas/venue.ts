@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { isTimeZone } from '$lib/schedule/wall-time';
 
 export const VENUE_KINDS = ['haunt', 'trail', 'exhibit'] as const;
 export const VENUE_KIND_LABELS: Record<(typeof VENUE_KINDS)[number], string> = {
@@ -7,19 +8,15 @@ export const VENUE_KIND_LABELS: Record<(typeof VENUE_KINDS)[number], string> = {
 	exhibit: 'Interactive exhibit'
 };
 
-export function isTimeZone(tz: string): boolean {
-	try {
-		new Intl.DateTimeFormat('en', { timeZone: tz });
-		return tz.includes('/') || tz === 'UTC';
-	} catch {
-		return false;
-	}
+/** A known IANA zone named by region (Europe/London), or UTC; bare abbreviations are refused. */
+export function isVenueTimeZone(tz: string): boolean {
+	return isTimeZone(tz) && (tz.includes('/') || tz === 'UTC');
 }
 
 export const timeZoneField = z
 	.string({ error: 'Choose a time zone.' })
 	.trim()
-	.refine(isTimeZone, 'Use an IANA time zone such as Europe/London or America/Chicago.');
+	.refine(isVenueTimeZone, 'Use an IANA time zone such as Europe/London or America/Chicago.');
 
 const optionalText = (max: number) =>
 	z
