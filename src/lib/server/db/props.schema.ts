@@ -23,6 +23,20 @@ import type { SensorSettings } from '../../schemas/sensor';
 import type { OutputSettings } from '../../schemas/output';
 import type { BrightnessCurve } from '../../curves/curve';
 
+/** What applying a capture's calibration stores on the sensor. */
+export interface SensorCalibration {
+	direction: 'up' | 'down';
+	/** Reading that counts as someone arriving. */
+	enter: number;
+	/** Reading that counts as them gone (enter minus hysteresis). */
+	exit: number;
+	/** Idle readings are expected inside this band. */
+	baselineLow: number;
+	baselineHigh: number;
+	captureId: string | null;
+	appliedAt: string;
+}
+
 export const propStatus = pgEnum('prop_status', PROP_STATUSES);
 export const sensorKind = pgEnum('sensor_kind', SENSOR_KINDS);
 export const outputKind = pgEnum('output_kind', OUTPUT_KINDS);
@@ -95,6 +109,8 @@ export const sensors = pgTable(
 		hysteresis: doublePrecision('hysteresis'),
 		debounceMs: integer('debounce_ms').notNull().default(0),
 		rearmMs: integer('rearm_ms').notNull().default(0),
+		/** Thresholds from the capture last applied; the pre-show sensor test reads against these. */
+		calibration: jsonb('calibration').$type<SensorCalibration>(),
 		createdAt: createdAt()
 	},
 	(t) => [

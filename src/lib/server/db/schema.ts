@@ -3,3 +3,4 @@ export * from './venues.schema';
 export * from './schedule.schema';
 export * from './mail.schema';
 export * from './props.schema';
+export * from './scenes.schema';

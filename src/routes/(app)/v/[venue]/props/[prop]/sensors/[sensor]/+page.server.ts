@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { EDITORS, requireRole } from '$lib/server/auth/guard';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db';
-import { captures, sensors } from '$lib/server/db/schema';
+import { captures, sensors, type SensorCalibration } from '$lib/server/db/schema';
 import { parseForm } from '$lib/server/forms';
 import { parseNestedForm } from '$lib/server/props/form';
 import { getController, getProp, isUuid } from '$lib/server/props/queries';
@@ -110,9 +110,18 @@ export const actions: Actions = {
 			far: cal.depth.far,
 			hysteresis: Math.abs(cal.enter - cal.exit)
 		};
+		const calibration: SensorCalibration = {
+			direction: cal.direction,
+			enter: cal.enter,
+			exit: cal.exit,
+			baselineLow: cal.baselineBand.low,
+			baselineHigh: cal.baselineBand.high,
+			captureId: capture.id,
+			appliedAt: new Date().toISOString()
+		};
 		await db
 			.update(sensors)
-			.set(range)
+			.set({ ...range, calibration })
 			.where(and(eq(sensors.id, sensor.id), eq(sensors.venueId, venue.id)));
 		await touchProp(db, venue.id, prop.id);
 		await audit(db, {

@@ -1,0 +1,148 @@
+import {
+	boolean,
+	doublePrecision,
+	index,
+	integer,
+	jsonb,
+	pgEnum,
+	pgTable,
+	primaryKey,
+	text,
+	timestamp,
+	uniqueIndex,
+	uuid
+} from 'drizzle-orm/pg-core';
+import { users } from './auth.schema';
+import { rooms, venues } from './venues.schema';
+import { outputs, props, sensors } from './props.schema';
+import { shows } from './schedule.schema';
+import type { CueAction } from '../../scenes/types';
+
+/** How a scene starts: a sensor entering its trigger range, a timer loop, or by hand. */
+export const SCENE_TRIGGERS = ['sensor', 'timer', 'manual'] as const;
+export type SceneTrigger = (typeof SCENE_TRIGGERS)[number];
+export const sceneTrigger = pgEnum('scene_trigger', SCENE_TRIGGERS);
+
+/** How a sensor's depth (0..1) becomes an output level before the output's brightness curve. */
+export const RESPONSE_SHAPES = ['rise', 'step', 'fall', 'points'] as const;
+export type ResponseShape = (typeof RESPONSE_SHAPES)[number];
+export const responseShape = pgEnum('response_shape', RESPONSE_SHAPES);
+
+const venueId = () =>
+	uuid('venue_id')
+		.notNull()
+		.references(() => venues.id, { onDelete: 'cascade' });
+const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
+
+export const scenes = pgTable(
+	'scenes',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		venueId: venueId(),
+		roomId: uuid('room_id').references(() => rooms.id, { onDelete: 'set null' }),
+		name: text('name').notNull(),
+		trigger: sceneTrigger('trigger').notNull().default('manual'),
+		/** The sensor whose trigger range starts the scene, when trigger = 'sensor'. */
+		triggerSensorId: uuid('trigger_sensor_id').references(() => sensors.id, {
+			onDelete: 'set null'
+		}),
+		/** Milliseconds between starts, when trigger = 'timer'. */
+		loopMs: integer('loop_ms'),
+		lengthMs: integer('length_ms').notNull(),
+		rearmMs: integer('rearm_ms').notNull().default(0),
+		/** False: the scene is kept but does not run on show nights (and makes no checks). */
+		runsOnShowNights: boolean('runs_on_show_nights').notNull().default(true),
+		notes: text('notes'),
+		createdAt: createdAt(),
+		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [
+		index('scenes_venue_room').on(t.venueId, t.roomId),
+		uniqueIndex('scenes_venue_name').on(t.venueId, t.name)
+	]
+);
+
+/** One timed action on one output; the lane is the output. */
+export const sceneCues = pgTable(
+	'scene_cues',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		venueId: venueId(),
+		sceneId: uuid('scene_id')
+			.notNull()
+			.references(() => scenes.id, { onDelete: 'cascade' }),
+		outputId: uuid('output_id')
+			.notNull()
+			.references(() => outputs.id, { onDelete: 'cascade' }),
+		startMs: integer('start_ms').notNull(),
+		action: jsonb('action').$type<CueAction>().notNull(),
+		createdAt: createdAt()
+	},
+	(t) => [index('scene_cues_scene').on(t.sceneId, t.startMs)]
+);
+
+/** A live link from a sensor's depth to an output's level. */
+export const sceneResponses = pgTable(
+	'scene_responses',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		venueId: venueId(),
+		sceneId: uuid('scene_id')
+			.notNull()
+			.references(() => scenes.id, { onDelete: 'cascade' }),
+		sensorId: uuid('sensor_id')
+			.notNull()
+			.references(() => sensors.id, { onDelete: 'cascade' }),
+		outputId: uuid('output_id')
+			.notNull()
+			.references(() => outputs.id, { onDelete: 'cascade' }),
+		shape: responseShape('shape').notNull().default('rise'),
+		/** Depth at which a 'step' switches. */
+		threshold: doublePrecision('threshold'),
+		/** Drawn [depth, level] pairs for 'points', depth ascending. */
+		points: jsonb('points').$type<[number, number][]>(),
+		minLevel: doublePrecision('min_level').notNull().default(0),
+		maxLevel: doublePrecision('max_level').notNull().default(1),
+		createdAt: createdAt()
+	},
+	(t) => [index('scene_responses_scene').on(t.sceneId)]
+);
+
+/** Scenes left out of one show (by default every scene with runsOnShowNights runs every show). */
+export const showSceneExclusions = pgTable(
+	'show_scene_exclusions',
+	{
+		showId: uuid('show_id')
+			.notNull()
+			.references(() => shows.id, { onDelete: 'cascade' }),
+		sceneId: uuid('scene_id')
+			.notNull()
+			.references(() => scenes.id, { onDelete: 'cascade' }),
+		venueId: venueId(),
+		reason: text('reason'),
+		createdAt: createdAt()
+	},
+	(t) => [primaryKey({ columns: [t.showId, t.sceneId] })]
+);
+
+/**
+ * A prop taken out of one show: its scenes hold their outputs in the safe state and the run sheets
+ * say so. Written by the show manager at sign-off time; never edited, only added.
+ */
+export const standDowns = pgTable(
+	'stand_downs',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		venueId: venueId(),
+		showId: uuid('show_id')
+			.notNull()
+			.references(() => shows.id, { onDelete: 'cascade' }),
+		propId: uuid('prop_id')
+			.notNull()
+			.references(() => props.id, { onDelete: 'cascade' }),
+		reason: text('reason').notNull(),
+		personId: text('person_id').references(() => users.id, { onDelete: 'set null' }),
+		at: timestamp('at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [uniqueIndex('stand_downs_show_prop').on(t.showId, t.propId)]
+);
