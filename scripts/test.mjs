@@ -1,11 +1,19 @@
 // @ts-check
 // `npm test`: every test, against its own PostgreSQL (port and data separate from `npm start`).
+// While working on one part: `npm test -- --vitest [vitest args]` runs only vitest, and
+// `npm test -- --e2e [playwright args]` only the build and the browser tests (say, one spec file).
 import { spawnSync } from 'node:child_process';
 import { ensureDependencies } from './lib/deps.mjs';
 import { LOCAL } from './lib/ports.mjs';
 import { ensurePostgres, recreateDatabase, stopPostgres } from './lib/pg.mjs';
 
 const t = LOCAL.test;
+const [mode, ...rest] = process.argv.slice(2);
+const only = mode === '--vitest' ? 'vitest' : mode === '--e2e' ? 'e2e' : null;
+if (mode && !only) {
+	console.error(`[test] unknown option ${mode}: use --vitest or --e2e, or nothing for every test`);
+	process.exit(2);
+}
 const started = Date.now();
 ensureDependencies();
 
@@ -37,7 +45,7 @@ pgStarted = true;
 const urlFor = (/** @type {string} */ db) => base.replace(/\/postgres$/, `/${db}`);
 
 step('sync SvelteKit types', ['node_modules/@sveltejs/kit/svelte-kit.js', 'sync']);
-step('type check', [
+if (!only) step('type check', [
 	'node_modules/svelte-check/bin/svelte-check',
 	'--tsconfig',
 	'./tsconfig.json',
@@ -47,10 +55,13 @@ step('type check', [
 	'human'
 ]);
 
-recreateDatabase({ port: t.pgPort, database: 'gloaming_it' });
-step('unit and integration tests', ['node_modules/vitest/vitest.mjs', 'run'], {
-	TEST_DATABASE_URL: urlFor('gloaming_it')
-});
+if (only !== 'e2e') {
+	recreateDatabase({ port: t.pgPort, database: 'gloaming_it' });
+	step('unit and integration tests', ['node_modules/vitest/vitest.mjs', 'run', ...rest], {
+		TEST_DATABASE_URL: urlFor('gloaming_it')
+	});
+	if (only === 'vitest') finish(0);
+}
 
 step('production build', ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn']);
 
@@ -60,7 +71,7 @@ step('prepare browser-test database', ['--import', 'tsx', 'scripts/migrate.ts'],
 	DATABASE_URL: e2eUrl
 });
 step('load demo data', ['--import', 'tsx', 'scripts/seed.ts'], { DATABASE_URL: e2eUrl });
-step('browser tests', ['node_modules/@playwright/test/cli.js', 'test'], {
+step('browser tests', ['node_modules/@playwright/test/cli.js', 'test', ...rest], {
 	E2E_DATABASE_URL: e2eUrl
 });
 
