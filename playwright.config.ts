@@ -53,14 +53,20 @@ export default defineConfig({
 	// at a time, after them.
 	projects: [
 		{
+			name: 'sessions',
+			testMatch: /sessions\.setup\.ts/,
+			use: { ...devices['Desktop Chrome'] }
+		},
+		{
 			name: 'pages',
 			testMatch: /pages\.spec\.ts/,
+			dependencies: ['sessions'],
 			fullyParallel: true,
 			use: { ...devices['Desktop Chrome'], viewport: { width: 1280, height: 800 } }
 		},
 		{
 			name: 'journeys',
-			testIgnore: /pages\.spec\.ts/,
+			testIgnore: [/pages\.spec\.ts/, /sessions\.setup\.ts/],
 			dependencies: ['pages'],
 			workers: 1,
 			use: { ...devices['Desktop Chrome'], viewport: { width: 1280, height: 800 } }

@@ -15,10 +15,9 @@ test('an invitation goes through the queue, shows as sent in the mail log, and c
 	await expect(page.getByRole('status')).toContainText(invitee);
 	const first = await waitForMail(invitee, since);
 
-	await page
-		.getByRole('navigation', { name: 'Venue' })
-		.getByRole('link', { name: 'Mail log' })
-		.click();
+	const nav = page.getByRole('navigation', { name: 'Venue' });
+	await nav.getByRole('button', { name: 'More' }).click();
+	await nav.getByRole('link', { name: 'Mail log' }).click();
 	await expect(page.getByRole('heading', { name: 'Mail log' })).toBeVisible();
 	const rows = page.getByRole('listitem').filter({ hasText: invitee });
 	await expect(rows).toHaveCount(1);

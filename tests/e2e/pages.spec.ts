@@ -1,6 +1,6 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Page } from '@playwright/test';
-import { GALLERY, TRAIL, people, signIn } from './support';
+import { GALLERY, TRAIL, people, sessionFile } from './support';
 
 // Every page, as the roles that can see it, at desktop and phone widths.
 // `follow` names links to click from `path`, for pages whose address holds a generated id;
@@ -72,10 +72,11 @@ const pages: {
 	{ role: 'crew', path: GALLERY, name: 'crew-404' }
 ];
 
-async function checkA11y(page: Page) {
-	const results = await new AxeBuilder({ page })
-		.withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'])
-		.analyze();
+/** WCAG 2.1 A and AA; `only` limits the run to some rules. */
+async function checkA11y(page: Page, only?: string[]) {
+	const builder = new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']);
+	if (only) builder.withRules(only);
+	const results = await builder.analyze();
 	const serious = results.violations.filter(
 		(v) => v.impact === 'serious' || v.impact === 'critical'
 	);
@@ -84,51 +85,46 @@ async function checkA11y(page: Page) {
 	).toEqual([]);
 }
 
-// Each role signs in once; every page test reuses that session.
-const sessions = new Map<string, string>();
-
-test.beforeAll(async ({ browser }, info) => {
-	for (const role of new Set(pages.map((p) => p.role))) {
-		if (!role) continue;
-		const context = await browser.newContext({ baseURL: info.project.use.baseURL });
-		const page = await context.newPage();
-		await signIn(page, people[role]);
-		const path = info.outputPath(`${role}.json`);
-		await context.storageState({ path });
-		sessions.set(role, path);
-		await context.close();
-	}
-});
-
-for (const theme of ['dusk', 'low-light'] as const) {
-	for (const p of pages) {
-		test(`${p.name} passes the accessibility check (${theme})`, async ({ browser, baseURL }) => {
-			const context = await browser.newContext({
-				baseURL,
-				storageState: p.role ? sessions.get(p.role) : undefined
-			});
-			await context.addCookies([{ name: 'gloaming-theme', value: theme, url: baseURL! }]);
-			const page = await context.newPage();
-			let path = typeof p.path === 'string' ? p.path : await p.path(page);
-			if (p.follow) {
-				await page.goto(path);
-				for (const name of p.follow) {
-					path = (await page.getByRole('link', { name, exact: true }).getAttribute('href'))!;
-					await page.goto(path);
-				}
-			}
-			// Low-light changes colours, not layout: one width is enough there.
-			for (const width of theme === 'dusk' ? [1280, 390] : [1280]) {
-				await page.setViewportSize({ width, height: width === 390 ? 844 : 800 });
-				await page.goto(path);
-				await expect(page.locator('h1').first()).toBeVisible();
-				if (width === 1280) await checkA11y(page);
-				await page.screenshot({
-					path: `tests/e2e/screenshots/${theme}-${p.name}-${width}.png`,
-					fullPage: true
-				});
-			}
-			await context.close();
+// Each page is checked in one browser context: dusk at desktop width (every axe rule) and phone
+// width, then low-light at desktop width. Low-light changes colours only, so there axe checks
+// contrast alone. The sessions come from sessions.setup.ts.
+for (const p of pages) {
+	test(`${p.name} passes the accessibility check`, async ({ browser, baseURL }) => {
+		// Three loads, two axe runs and three full-page screenshots.
+		test.setTimeout(60_000);
+		const context = await browser.newContext({
+			baseURL,
+			storageState: p.role ? sessionFile(p.role) : undefined
 		});
-	}
+		await context.addCookies([{ name: 'gloaming-theme', value: 'dusk', url: baseURL! }]);
+		const page = await context.newPage();
+		let path = typeof p.path === 'string' ? p.path : await p.path(page);
+		if (p.follow) {
+			await page.goto(path);
+			for (const name of p.follow) {
+				path = (await page.getByRole('link', { name, exact: true }).getAttribute('href'))!;
+				await page.goto(path);
+			}
+		}
+		const shot = (theme: string, width: number) =>
+			page.screenshot({
+				path: `tests/e2e/screenshots/${theme}-${p.name}-${width}.png`,
+				fullPage: true
+			});
+
+		await page.goto(path);
+		await expect(page.locator('h1').first()).toBeVisible();
+		await checkA11y(page);
+		await shot('dusk', 1280);
+		await page.setViewportSize({ width: 390, height: 844 });
+		await shot('dusk', 390);
+
+		await context.addCookies([{ name: 'gloaming-theme', value: 'low-light', url: baseURL! }]);
+		await page.setViewportSize({ width: 1280, height: 800 });
+		await page.goto(path);
+		await expect(page.locator('html')).toHaveAttribute('data-theme', 'low-light');
+		await checkA11y(page, ['color-contrast']);
+		await shot('low-light', 1280);
+		await context.close();
+	});
 }

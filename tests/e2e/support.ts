@@ -54,3 +54,8 @@ export function firstLink(text: string): string {
 	if (!m) throw new Error('no link in the message');
 	return m[0];
 }
+
+/** Where sessions.setup.ts keeps each role's signed-in browser state. */
+export function sessionFile(role: keyof typeof people): string {
+	return `tests/e2e/.sessions/${role}.json`;
+}
