@@ -1,8 +1,15 @@
 import { escapeText, foldLine, formatUtc, PRODUCT_ID } from '../schedule/ics';
 
+const formatters = new Map<string, Intl.DateTimeFormat>();
+
 /** Minutes east of UTC of a zone at an instant, from the platform's time-zone data. */
 export function zoneOffsetMinutes(timeZone: string, at: Date): number {
-	const name = new Intl.DateTimeFormat('en-US', { timeZone, timeZoneName: 'longOffset' })
+	let f = formatters.get(timeZone);
+	if (!f) {
+		f = new Intl.DateTimeFormat('en-US', { timeZone, timeZoneName: 'longOffset' });
+		formatters.set(timeZone, f);
+	}
+	const name = f
 		.formatToParts(at)
 		.find((p) => p.type === 'timeZoneName')?.value;
 	const m = /GMT([+-])(\d{2}):?(\d{2})?/.exec(name ?? '');
