@@ -161,7 +161,9 @@ async function seedSchedule(db: Db, ids: Record<PersonKey, string>) {
 	const crewPlan: [PersonKey, string][] = [
 		['crew', 'Room tech, Gatehouse'],
 		['manager', 'Safety lead'],
-		['designer', 'Room tech, Hollow Barn']
+		['designer', 'Room tech, Hollow Barn'],
+		// Where the demo scene "Lantern walk" runs, so a run sheet shows scenes, cues and cautions.
+		['owner', 'Room tech, Lantern Walk']
 	];
 	for (const [key, name] of crewPlan) {
 		const positionId = await postId(name);

@@ -204,8 +204,13 @@ export async function buildShowRunSheets(
 			role: 'Safety contact',
 			phone: venue.safetyContactPhone
 		});
-	for (const m of managers)
-		contacts.push({ name: m.name ?? m.email, role: 'Show manager', email: m.email });
+	for (const m of managers) {
+		const name = m.name ?? m.email;
+		// The safety contact is often a show manager: one line for the one person.
+		const same = contacts.find((c) => c.name === name);
+		if (same) Object.assign(same, { role: `${same.role}, show manager`, email: m.email });
+		else contacts.push({ name, role: 'Show manager', email: m.email });
+	}
 
 	const byPerson = new Map<string, typeof crew>();
 	for (const a of crew) byPerson.set(a.personId, [...(byPerson.get(a.personId) ?? []), a]);
