@@ -79,7 +79,11 @@ const relay = (relayKind: 'pneumatic' | 'strobe' | 'fog', loadV = 12): OutputSet
 	loadV,
 	loadCurrentA: 0.5,
 	contactRatingA: 5,
-	contactRatingV: 250
+	contactRatingV: 250,
+	onMs: null,
+	minOnMs: null,
+	offMs: null,
+	minOffMs: null
 });
 const string: OutputSettings = {
 	kind: 'led_string',

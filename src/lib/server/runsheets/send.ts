@@ -78,11 +78,12 @@ export async function queueRunSheets(
 		actorId?: string | null;
 	}
 ): Promise<QueueResult> {
+	const latest = await latestSends(db, o.showId);
+	// Until run sheets went out there is nothing to tell about a change (and nothing to build).
+	if (o.reason === 'change' && latest.size === 0) return { queued: 0, unchanged: 0 };
 	const built = await buildShowRunSheets(db, o.venueId, o.showId, o.origin);
 	if (!built) return { queued: 0, unchanged: 0 };
 	const { venue, show, sheets } = built;
-	const latest = await latestSends(db, show.id);
-	if (o.reason === 'change' && latest.size === 0) return { queued: 0, unchanged: sheets.length };
 	const on = show.status === 'scheduled';
 	if (!on && o.reason !== 'change') return { queued: 0, unchanged: 0, notOn: true };
 
@@ -120,22 +121,29 @@ export async function queueRunSheets(
 		mail: { subject: string; html: string; text: string },
 		ics: string
 	) => {
-		const message = await queueMail(db, {
-			venueId: venue.id,
-			kind: 'run_sheet',
-			subjectId: show.id,
-			version: `r${row.revision}-${row.contentHash}`,
-			recipient: email,
-			...mail,
-			attachments: [
-				{
-					filename: 'crew-call.ics',
-					contentType: 'text/calendar; charset=utf-8; method=PUBLISH',
-					content: ics
-				}
-			],
-			queuedBy: o.actorId ?? null
-		});
+		let message;
+		try {
+			message = await queueMail(db, {
+				venueId: venue.id,
+				kind: 'run_sheet',
+				subjectId: show.id,
+				version: `r${row.revision}-${row.contentHash}`,
+				recipient: email,
+				...mail,
+				attachments: [
+					{
+						filename: 'crew-call.ics',
+						contentType: 'text/calendar; charset=utf-8; method=PUBLISH',
+						content: ics
+					}
+				],
+				queuedBy: o.actorId ?? null
+			});
+		} catch (e) {
+			// Without its message the revision would read as sent: drop it so the next try sends.
+			await db.delete(runSheetSends).where(eq(runSheetSends.id, row.id));
+			throw e;
+		}
 		await db
 			.update(runSheetSends)
 			.set({ mailMessageId: message.id })
