@@ -52,6 +52,22 @@ test('receiving a run-sheet e-mail', async ({ page, context }) => {
 		'Everyone already has the current run sheet; nothing new to send.'
 	);
 
+	// A later call for that person: only they get a changed run sheet, with a new calendar version.
+	await page
+		.getByLabel('Position', { exact: true })
+		.selectOption({ label: 'Room tech, Lantern Walk' });
+	await page.getByLabel('Crew member').selectOption({ label: 'Sully Fenwick' });
+	await page.getByLabel('Own call').fill('17:45');
+	await page.getByRole('button', { name: 'Assign' }).click();
+	await expect(page.getByText('Sully Fenwick · call 17:45 (own call)')).toBeVisible();
+	const changed = await waitForMail(people.crew, mail.id);
+	expect(changed.subject).toBe('Changed: Run sheet for Fri 8 Oct 2027 at Hollow Pines Trail');
+	expect(changed.text).toContain('Crew call: 17:45 (was 17:15)');
+	const newCall = Buffer.from(changed.attachments![0].content, 'base64').toString('utf8');
+	expect(newCall).toContain('DTSTART;TZID=America/New_York:20271008T174500');
+	expect(newCall).toMatch(/SEQUENCE:[1-9]/);
+	await expect(row).toContainText('version 2 · change notice');
+
 	// The crew member opens the link in the message and sees their own sheet, and only theirs.
 	await context.clearCookies();
 	await signIn(page, people.crew);
@@ -59,7 +75,8 @@ test('receiving a run-sheet e-mail', async ({ page, context }) => {
 	await expect(
 		page.getByRole('heading', { level: 1, name: 'Run sheet, Fri 8 Oct 2027' })
 	).toBeVisible();
-	await expect(page.getByTestId('run-sheet-call')).toHaveText('17:15 (America/New_York)');
+	await expect(page.getByTestId('run-sheet-call')).toHaveText('17:45 (America/New_York)');
+	await expect(page.getByText('Strobe: photosensitivity signage must be up')).toBeVisible();
 	await expect(page.getByText('Stood down')).toHaveCount(0);
 	await page.goto(firstLink(mail.text).replace(/\/[^/]+$/, ''));
 	await expect(page.getByRole('article')).toHaveCount(1);
