@@ -238,14 +238,12 @@ async function setUp(doors = new Date('2031-10-10T23:00:00Z'), leadHours = 24) {
 describe('building run sheets from the database', () => {
 	it('gives each crew member their call, post, rooms, scenes with cues and safety notes', async () => {
 		const t = await setUp();
-		await db
-			.insert(standDowns)
-			.values({
-				venueId: t.venue.id,
-				showId: t.show.id,
-				propId: t.rootProp.id,
-				reason: 'fog fluid pump sticking'
-			});
+		await db.insert(standDowns).values({
+			venueId: t.venue.id,
+			showId: t.show.id,
+			propId: t.rootProp.id,
+			reason: 'fog fluid pump sticking'
+		});
 		const built = (await buildShowRunSheets(db, t.venue.id, t.show.id, origin))!;
 		expect(built.sheets.map((s) => s.name)).toEqual([
 			'Ash Loftkeeper',
@@ -376,14 +374,12 @@ describe('sending run sheets', () => {
 		expect(event.startDate.toJSDate()).toEqual(later);
 
 		// A prop stood down in the cellar after sending: only the cellar tech hears of it.
-		await db
-			.insert(standDowns)
-			.values({
-				venueId: t.venue.id,
-				showId: t.show.id,
-				propId: t.rootProp.id,
-				reason: 'cracked plate'
-			});
+		await db.insert(standDowns).values({
+			venueId: t.venue.id,
+			showId: t.show.id,
+			propId: t.rootProp.id,
+			reason: 'cracked plate'
+		});
 		expect(
 			await queueRunSheets(db, { venueId: t.venue.id, showId: t.show.id, reason: 'change', origin })
 		).toEqual({ queued: 1, unchanged: 2 });

@@ -9,9 +9,7 @@ export function zoneOffsetMinutes(timeZone: string, at: Date): number {
 		f = new Intl.DateTimeFormat('en-US', { timeZone, timeZoneName: 'longOffset' });
 		formatters.set(timeZone, f);
 	}
-	const name = f
-		.formatToParts(at)
-		.find((p) => p.type === 'timeZoneName')?.value;
+	const name = f.formatToParts(at).find((p) => p.type === 'timeZoneName')?.value;
 	const m = /GMT([+-])(\d{2}):?(\d{2})?/.exec(name ?? '');
 	if (!m) return 0; // plain "GMT"
 	return (m[1] === '-' ? -1 : 1) * (Number(m[2]) * 60 + Number(m[3] ?? 0));
