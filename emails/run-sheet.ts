@@ -1,7 +1,7 @@
 import { COLOURS, button, escapeHtml, facts, frame, heading, list, textHeading } from './layout';
 
 export type RunSheetWarning =
-	| { kind: 'strobe' | 'fog' | 'pneumatics'; note?: string }
+	| { kind: 'strobe' | 'fog' | 'pneumatics' | 'mains'; note?: string }
 	| { kind: 'stood_down'; prop: string; reason: string };
 
 export interface RunSheetScene {
@@ -24,26 +24,43 @@ export interface RunSheetData {
 	position: string;
 	rooms: string[];
 	scenes: RunSheetScene[];
-	checklist: { room: string | null; item: string }[];
-	safetyContacts: { name: string; role: string | null; phone: string }[];
+	/** Left out until the show's checklist is generated. */
+	checklist?: { room: string | null; item: string }[];
+	/** A phone number, an e-mail address or both. */
+	safetyContacts: {
+		name: string;
+		role: string | null;
+		phone?: string | null;
+		email?: string | null;
+	}[];
 	showStop: string[];
 	/** The web version of this run sheet. */
 	url?: string;
+	/** Set on a run sheet sent again because something changed: what changed since the last one. */
+	changes?: { what: string; before: string; after: string }[];
 }
 
 const WARNING_WORDS = {
 	strobe: 'Strobe: photosensitivity signage must be up',
 	fog: 'Fog: check detectors and ventilation',
-	pneumatics: 'Pneumatics: keep clear of moving parts'
+	pneumatics: 'Pneumatics: keep clear of moving parts',
+	mains: 'Mains-powered load: enclosures stay shut, wiring is for a licensed electrician'
 } as const;
 
 export function warningText(w: RunSheetWarning): string {
-	if (w.kind === 'stood_down') return `Stood down tonight: ${w.prop} (${w.reason})`;
+	if (w.kind === 'stood_down')
+		return `Stood down tonight: ${w.prop}, held in safe state (${w.reason})`;
 	return w.note ? `${WARNING_WORDS[w.kind]} (${w.note})` : WARNING_WORDS[w.kind];
 }
 
-export function runSheetSubject(d: Pick<RunSheetData, 'venueName' | 'dateLabel'>) {
-	return `Run sheet for ${d.dateLabel} at ${d.venueName}`;
+export function runSheetSubject(d: Pick<RunSheetData, 'venueName' | 'dateLabel' | 'changes'>) {
+	const base = `Run sheet for ${d.dateLabel} at ${d.venueName}`;
+	return d.changes?.length ? `Changed: ${base}` : base;
+}
+
+function contactLine(c: RunSheetData['safetyContacts'][number]) {
+	const how = [c.phone, c.email].filter(Boolean).join(', ');
+	return `${c.name}${c.role ? ` (${c.role})` : ''}${how ? `: ${how}` : ''}`;
 }
 
 export function renderRunSheet(d: RunSheetData) {
@@ -69,20 +86,31 @@ ${warnings}${s.cues.length ? list(s.cues) : `<p style="margin:0;color:${COLOURS.
 		})
 		.join('');
 
-	const checklist = d.checklist.map((c) => (c.room ? `${c.room}: ${c.item}` : c.item));
-	const contacts = d.safetyContacts.map(
-		(c) => `${c.name}${c.role ? ` (${c.role})` : ''}: ${c.phone}`
-	);
+	const checklist = d.checklist?.map((c) => (c.room ? `${c.room}: ${c.item}` : c.item));
+	const contacts = d.safetyContacts.map(contactLine);
+	const changes = d.changes ?? [];
+	const changeHtml = changes.length
+		? `${heading('What changed')}<table role="presentation" cellpadding="0" cellspacing="0" width="100%" style="margin:0 0 12px;border-left:4px solid ${COLOURS.lantern};">${changes
+				.map(
+					(c) =>
+						`<tr><td style="padding:4px 10px;font-weight:bold;vertical-align:top;">${escapeHtml(c.what)}</td><td style="padding:4px 10px;vertical-align:top;">${escapeHtml(c.after)} <span style="color:${COLOURS.muted};">(was ${escapeHtml(c.before)})</span></td></tr>`
+				)
+				.join('')}</table>`
+		: '';
+	const checklistHtml = checklist
+		? `${heading('Your checks before doors')}
+${checklist.length ? list(checklist) : `<p style="margin:0;color:${COLOURS.muted};">No checks assigned to you.</p>`}`
+		: '';
 
 	const html = frame(
 		subject,
-		`<p style="margin:0 0 12px;">${escapeHtml(d.person.name)}, here is your run sheet for ${escapeHtml(d.venueName)}.</p>
+		`<p style="margin:0 0 12px;">${escapeHtml(d.person.name)}, here is your ${changes.length ? 'changed ' : ''}run sheet for ${escapeHtml(d.venueName)}.</p>
+${changeHtml}
 ${facts(when)}
 ${d.url ? button(d.url, 'Open the run sheet') : ''}
 ${heading('Scenes in your rooms')}
 ${sceneHtml || `<p style="margin:0;color:${COLOURS.muted};">No scenes run in your rooms tonight.</p>`}
-${heading('Your checks before doors')}
-${checklist.length ? list(checklist) : `<p style="margin:0;color:${COLOURS.muted};">No checks assigned to you.</p>`}
+${checklistHtml}
 ${heading('Safety contacts')}
 ${contacts.length ? list(contacts) : `<p style="margin:0;color:${COLOURS.muted};">Ask the show manager.</p>`}
 ${heading('Show stop')}
@@ -99,16 +127,19 @@ ${list(d.showStop, true)}
 			].join('\n')
 		)
 		.join('\n');
-	const text = `${d.person.name}, here is your run sheet for ${d.venueName}.
-
+	const changeText = changes.length
+		? `\n${textHeading('What changed')}\n${changes.map((c) => `${c.what}: ${c.after} (was ${c.before})`).join('\n')}\n`
+		: '';
+	const checklistText = checklist
+		? `\n${textHeading('Your checks before doors')}\n${checklist.length ? checklist.map((c) => `[ ] ${c}`).join('\n') : 'No checks assigned to you.'}\n`
+		: '';
+	const text = `${d.person.name}, here is your ${changes.length ? 'changed ' : ''}run sheet for ${d.venueName}.
+${changeText}
 ${when.map(([k, v]) => `${k}: ${v}`).join('\n')}
 ${d.url ? `\nOpen the run sheet: ${d.url}\n` : ''}
 ${textHeading('Scenes in your rooms')}
 ${sceneText || 'No scenes run in your rooms tonight.'}
-
-${textHeading('Your checks before doors')}
-${checklist.length ? checklist.map((c) => `[ ] ${c}`).join('\n') : 'No checks assigned to you.'}
-
+${checklistText}
 ${textHeading('Safety contacts')}
 ${contacts.length ? contacts.join('\n') : 'Ask the show manager.'}
 

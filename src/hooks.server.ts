@@ -2,11 +2,12 @@ import type { Handle, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { building } from '$app/environment';
 import { handle as authHandle } from './auth';
-import { checkConfig } from '$lib/server/config';
+import { checkConfig, config } from '$lib/server/config';
 import { closeDb, db } from '$lib/server/db';
 import { applyMigrations } from '$lib/server/migrate';
 import { startMailQueue, stopMailQueue } from '$lib/server/mail/queue';
 import { mailDomain, sendEnvelope } from '$lib/server/mail/transport';
+import { startRunSheetSweep } from '$lib/server/runsheets/timer';
 import { env } from '$env/dynamic/private';
 import { guardHandle } from '$lib/server/hooks/guard';
 import { personHandle } from '$lib/server/hooks/person';
@@ -17,12 +18,13 @@ export const init: ServerInit = async () => {
 	if (building) return;
 	checkConfig();
 	await applyMigrations(db);
-	await startMailQueue({
+	const boss = await startMailQueue({
 		connectionString: env.DATABASE_URL!,
 		db,
 		send: sendEnvelope,
 		domain: mailDomain()
 	});
+	await startRunSheetSweep(boss, db, config.origin);
 	// node build waits for open pools on SIGTERM: close the queue, then the database.
 	process.once('sveltekit:shutdown', () => void stopMailQueue().finally(() => closeDb()));
 };

@@ -52,6 +52,29 @@ const pages: {
 		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027'],
 		name: 'show'
 	},
+	{
+		role: 'manager',
+		path: `${TRAIL}/seasons`,
+		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027', 'Preview run sheets'],
+		name: 'run-sheets'
+	},
+	{
+		role: 'manager',
+		path: `${TRAIL}/seasons`,
+		follow: [
+			'Hollow Pines Autumn 2027',
+			'Fri 1 Oct 2027',
+			'Preview run sheets',
+			"Open Sully Fenwick's run sheet on its own"
+		],
+		name: 'run-sheet'
+	},
+	{
+		role: 'crew',
+		path: `${TRAIL}/my-nights`,
+		follow: ['Fri 1 Oct 2027', 'Your run sheet'],
+		name: 'crew-run-sheets'
+	},
 	{ role: 'owner', path: `${TRAIL}/mail`, name: 'mail-log' },
 	{ role: 'owner', path: `${TRAIL}/mail/preview`, name: 'mail-preview' },
 	{ role: 'manager', path: `${TRAIL}/mail`, name: 'manager-mail-log' },

@@ -27,6 +27,8 @@ export interface CaughtMessage {
 	envelopeTo: string[];
 	text: string;
 	html: string | null;
+	/** Only on a single message read with waitForMail: content is base64. */
+	attachments?: { filename: string; contentType: string; size: number; content: string }[];
 }
 
 /** Wait for the newest message to an address in the local mail catcher. */

@@ -1,9 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { eq, inArray } from 'drizzle-orm';
+import { and, eq, inArray } from 'drizzle-orm';
 import {
 	assignments,
 	memberships,
 	rooms,
+	scenes,
 	seasons,
 	shows,
 	users,
@@ -76,6 +77,12 @@ describe('demo data', () => {
 		const opening = nights.find((n) => n.openingNight)!;
 		expect(opening.date).toBe('2027-10-01');
 		const crew = await db.select().from(assignments).where(eq(assignments.showId, opening.id));
-		expect(crew).toHaveLength(3);
+		expect(crew).toHaveLength(4);
+		// The demo scene for run sheets, once however often the seed runs.
+		const demoScenes = await db
+			.select()
+			.from(scenes)
+			.where(and(eq(scenes.venueId, trail.id), eq(scenes.name, 'Lantern walk')));
+		expect(demoScenes).toHaveLength(1);
 	});
 });

@@ -31,8 +31,9 @@ describe('run sheet e-mail', () => {
 	it('flags strobe, fog, pneumatics and stood-down props', () => {
 		expect(warningText({ kind: 'strobe', note: '4 flashes per second' })).toMatch(/^Strobe/);
 		expect(warningText({ kind: 'stood_down', prop: 'Plate', reason: 'cracked' })).toBe(
-			'Stood down tonight: Plate (cracked)'
+			'Stood down tonight: Plate, held in safe state (cracked)'
 		);
+		expect(warningText({ kind: 'mains' })).toMatch(/^Mains-powered load/);
 		expect(text).toContain('! Fog');
 		expect(text).toContain('! Pneumatics');
 		expect(text).toContain('! Stood down tonight: Root hand plate');
@@ -51,6 +52,23 @@ describe('run sheet e-mail', () => {
 		const empty = renderRunSheet({ ...d, scenes: [], checklist: [], safetyContacts: [] });
 		expect(empty.text).toContain('No scenes run in your rooms tonight.');
 		expect(empty.text).toContain('No checks assigned to you.');
+		// Before the show's checklist exists, the section is left out rather than claiming none.
+		const noList = renderRunSheet({ ...d, checklist: undefined });
+		expect(noList.text).not.toContain('Your checks before doors');
+		expect(noList.html).not.toContain('Your checks before doors');
+	});
+
+	it('a changed run sheet says what changed, in the subject and both parts', () => {
+		const changed = renderRunSheet({
+			...d,
+			changes: [{ what: 'Crew call', before: '17:30', after: '17:00' }]
+		});
+		expect(changed.subject).toBe(
+			'Changed: Run sheet for Saturday 31 October 2026 at Hollow Pines Trail'
+		);
+		expect(changed.text).toContain('Crew call: 17:00 (was 17:30)');
+		expect(changed.html).toContain('What changed');
+		expect(changed.html).toContain('(was 17:30)');
 	});
 });
 

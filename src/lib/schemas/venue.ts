@@ -49,5 +49,10 @@ export const venueSettingsSchema = newVenueSchema.extend({
 		.min(5, 'Use at least 5 seconds.')
 		.max(3600, 'Use at most an hour.'),
 	safetyContactName: optionalText(100),
-	safetyContactPhone: optionalText(40)
+	safetyContactPhone: optionalText(40),
+	runSheetLeadHours: z.coerce
+		.number({ error: 'Enter a whole number of hours.' })
+		.int('Enter a whole number of hours.')
+		.min(0, 'Use 0 or more hours (0 turns automatic sending off).')
+		.max(336, 'Use at most 336 hours (two weeks).')
 });

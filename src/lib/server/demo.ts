@@ -14,6 +14,7 @@ import {
 import { regenerateShows } from './schedule/seasons';
 import { hashPassword } from './auth/password';
 import { seedDemoProps } from './demo-props';
+import { seedLanternWalk } from './demo-lantern-walk';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
 export const DEMO_PASSWORD = 'lantern-demo-2026';
@@ -94,6 +95,7 @@ export async function seedDemo(db: Db) {
 				await db.insert(memberships).values({ venueId: venue.id, personId: ids[key], role });
 		}
 		await seedDemoProps(db, venue.id, v.slug);
+		if (v.slug === 'hollow-pines-trail') await seedLanternWalk(db, venue.id);
 	}
 	await seedSchedule(db, ids);
 	return ids;
@@ -159,7 +161,9 @@ async function seedSchedule(db: Db, ids: Record<PersonKey, string>) {
 	const crewPlan: [PersonKey, string][] = [
 		['crew', 'Room tech, Gatehouse'],
 		['manager', 'Safety lead'],
-		['designer', 'Room tech, Hollow Barn']
+		['designer', 'Room tech, Hollow Barn'],
+		// Where the demo scene "Lantern walk" runs, so a run sheet shows scenes, cues and cautions.
+		['owner', 'Room tech, Lantern Walk']
 	];
 	for (const [key, name] of crewPlan) {
 		const positionId = await postId(name);

@@ -27,6 +27,8 @@ export const venues = pgTable('venues', {
 	dispatchIntervalSeconds: integer('dispatch_interval_seconds').notNull().default(90),
 	safetyContactName: text('safety_contact_name'),
 	safetyContactPhone: text('safety_contact_phone'),
+	/** Run sheets go out this many hours before crew call; 0 turns automatic sending off. */
+	runSheetLeadHours: integer('run_sheet_lead_hours').notNull().default(24),
 	createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 });
 

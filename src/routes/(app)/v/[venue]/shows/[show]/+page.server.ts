@@ -10,6 +10,7 @@ import { keep, parseForm } from '$lib/server/forms';
 import { getShow, listPositions, showAssignments, showConflicts } from '$lib/server/schedule/shows';
 import { assignSchema, idSchema, showStatusSchema, showTimesSchema } from '$lib/schemas/schedule';
 import { localTime } from '$lib/util/when';
+import { noticeRunSheetChanges, runSheetDelivery } from '$lib/server/runsheets/send';
 import type { Actions, PageServerLoad } from './$types';
 
 async function findShow(venueId: string, id: string) {
@@ -61,7 +62,8 @@ export const load: PageServerLoad = async (event) => {
 		})),
 		members: members.map((m) => ({ id: m.id, name: m.name ?? m.email })),
 		conflicts: await showConflicts(db, venue.id, show.id),
-		canEdit: PLANNERS.includes(venue.role)
+		canEdit: PLANNERS.includes(venue.role),
+		runSheets: PLANNERS.includes(venue.role) ? await runSheetDelivery(db, venue.id, show.id) : null
 	};
 };
 
@@ -132,6 +134,7 @@ export const actions: Actions = {
 			action: 'show.changed',
 			detail: { date: show.date, doorsOpen, doorsClose, crewCall }
 		});
+		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'times', saved: true };
 	},
 	status: async (event) => {
@@ -147,6 +150,7 @@ export const actions: Actions = {
 			action: 'show.status',
 			detail: { date: show.date, status: parsed.data.status }
 		});
+		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'status', saved: true };
 	},
 	assign: async (event) => {
@@ -200,6 +204,7 @@ export const actions: Actions = {
 			action: 'show.assigned',
 			detail: { date: show.date, position: post.name, person: personId, assignment: done[0].id }
 		});
+		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'assign', saved: true };
 	},
 	unassign: async (event) => {
@@ -219,6 +224,7 @@ export const actions: Actions = {
 			action: 'show.unassigned',
 			detail: { assignment: parsed.data.id }
 		});
+		await noticeRunSheetChanges(db, venue.id, done[0].showId, event);
 		return { action: 'unassign', saved: true };
 	}
 };

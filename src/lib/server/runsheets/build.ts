@@ -1,0 +1,270 @@
+import { createHash } from 'node:crypto';
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import type { RunSheetData, RunSheetScene, RunSheetWarning } from '$emails/run-sheet';
+import { hazardsOf } from '$lib/props/output-maths';
+import { cueLine, responseLine } from '$lib/runsheets/cues';
+import type { SheetSummary } from '$lib/runsheets/changes';
+import { checkScene, needsStrobeSignage } from '$lib/scenes/checks';
+import type { Db } from '$lib/server/db/client';
+import {
+	assignments,
+	memberships,
+	positions,
+	props,
+	rooms,
+	sensors,
+	shows,
+	standDowns,
+	users,
+	venues
+} from '$lib/server/db/schema';
+import { scenesForShow } from '$lib/server/scenes/for-show';
+import { loadScene, luminanceThroughCurves } from '$lib/server/scenes/model';
+import { localDay, localTime } from '$lib/util/when';
+
+export type Show = typeof shows.$inferSelect;
+export type Venue = typeof venues.$inferSelect;
+
+/** Gloaming's show-stop steps, the same at every venue. */
+export const SHOW_STOP = [
+	'Press the nearest stop button: effects go to their safe state, lights come up full, valves and fog go off.',
+	'Call "show stop" on the radio and say which room.',
+	'Guide guests to the nearest lit exit; do not restart until the show manager or safety lead says so.'
+];
+
+const STATUS_WORDS = { scheduled: 'Scheduled', cancelled: 'Cancelled', dark: 'Dark' } as const;
+
+/** One person's run sheet for one show, with what is needed to send it and to tell changes. */
+export interface PersonRunSheet {
+	personId: string;
+	email: string;
+	name: string;
+	callAt: Date;
+	data: RunSheetData;
+	summary: SheetSummary;
+	/** Hash of everything the sheet says (not its link): equal hashes, nothing to send. */
+	contentHash: string;
+}
+
+export interface ShowRunSheets {
+	venue: Venue;
+	show: Show;
+	sheets: PersonRunSheet[];
+}
+
+export function runSheetUrl(origin: string, slug: string, showId: string, personId: string) {
+	return new URL(`/v/${slug}/shows/${showId}/run-sheets/${personId}`, origin).toString();
+}
+
+/** A short hash of what a sheet says (its link and change list left out) and the show's status. */
+export function hashContent(data: RunSheetData, status: string): string {
+	const { url: _url, changes: _changes, ...content } = data;
+	return createHash('sha256')
+		.update(JSON.stringify({ content, status }))
+		.digest('hex')
+		.slice(0, 16);
+}
+
+/** The scenes of a show with their cues and safety notes, each with its room. */
+async function sceneSheets(db: Db, venue: Venue, showId: string) {
+	const running = await scenesForShow(db, venue.id, showId);
+	if (running.length === 0) return [];
+	const allProps = [...new Set(running.flatMap((s) => s.propIds))];
+	const [roomRows, propRows, downRows] = await Promise.all([
+		db.select({ id: rooms.id, name: rooms.name }).from(rooms).where(eq(rooms.venueId, venue.id)),
+		allProps.length
+			? db
+					.select({ id: props.id, name: props.name })
+					.from(props)
+					.where(and(eq(props.venueId, venue.id), inArray(props.id, allProps)))
+			: [],
+		db
+			.select({ propId: standDowns.propId, reason: standDowns.reason })
+			.from(standDowns)
+			.where(and(eq(standDowns.venueId, venue.id), eq(standDowns.showId, showId)))
+	]);
+	const roomName = new Map(roomRows.map((r) => [r.id, r.name]));
+	const propName = new Map(propRows.map((p) => [p.id, p.name]));
+	const downReason = new Map(downRows.map((d) => [d.propId, d.reason]));
+
+	const out: (RunSheetScene & { roomId: string | null; stoodDownProps: string[] })[] = [];
+	for (const s of running) {
+		const loaded = await loadScene(db, venue.id, s.id);
+		if (!loaded) continue;
+		const outputById = new Map(loaded.outputRows.map((o) => [o.id, o]));
+		const sensorIds = [...new Set(loaded.responses.map((r) => r.sensorId))];
+		const sensorRows = sensorIds.length
+			? await db
+					.select({ id: sensors.id, name: sensors.name })
+					.from(sensors)
+					.where(and(eq(sensors.venueId, venue.id), inArray(sensors.id, sensorIds)))
+			: [];
+		const sensorName = new Map(sensorRows.map((x) => [x.id, x.name]));
+		const cues = [
+			...loaded.responses.map((r) =>
+				responseLine(
+					outputById.get(r.outputId)?.name ?? 'an output',
+					sensorName.get(r.sensorId) ?? 'a sensor'
+				)
+			),
+			...loaded.cues.map((c) => {
+				const o = outputById.get(c.outputId);
+				return cueLine(c.startMs, c.action, {
+					name: o?.name ?? 'an output',
+					kind: o?.kind === 'relay' ? 'relay' : 'led'
+				});
+			})
+		];
+
+		const warnings: RunSheetWarning[] = [];
+		const hazards = new Set(loaded.outputRows.flatMap((o) => hazardsOf(o)));
+		const findings = checkScene(loaded.scene, loaded.outputs, {
+			luminance: luminanceThroughCurves(loaded.outputRows)
+		});
+		const flashing = findings.some((f) => f.code === 'flash-rate');
+		if (hazards.has('strobe') || needsStrobeSignage(findings))
+			warnings.push({
+				kind: 'strobe',
+				...(flashing ? { note: 'flashes more than 3 times a second' } : {})
+			});
+		if (hazards.has('fog')) warnings.push({ kind: 'fog' });
+		if (hazards.has('pneumatics')) warnings.push({ kind: 'pneumatics' });
+		if (hazards.has('mains-powered load')) warnings.push({ kind: 'mains' });
+		const stoodDownProps: string[] = [];
+		for (const propId of s.propIds) {
+			const reason = downReason.get(propId);
+			if (reason === undefined) continue;
+			const prop = propName.get(propId) ?? 'A prop';
+			stoodDownProps.push(prop);
+			warnings.push({ kind: 'stood_down', prop, reason });
+		}
+		out.push({
+			name: s.name,
+			room: (s.roomId && roomName.get(s.roomId)) || 'No room',
+			roomId: s.roomId,
+			cues,
+			warnings,
+			stoodDownProps
+		});
+	}
+	return out;
+}
+
+/**
+ * Every assigned person's run sheet for one show, built from the database: their call, positions,
+ * rooms, the scenes running in those rooms with cues and safety notes, stood-down props, and
+ * whom to call. Null when the show is not in the venue.
+ */
+export async function buildShowRunSheets(
+	db: Db,
+	venueId: string,
+	showId: string,
+	origin: string
+): Promise<ShowRunSheets | null> {
+	const [row] = await db
+		.select({ show: shows, venue: venues })
+		.from(shows)
+		.innerJoin(venues, eq(venues.id, shows.venueId))
+		.where(and(eq(shows.id, showId), eq(shows.venueId, venueId)));
+	if (!row) return null;
+	const { show, venue } = row;
+	const tz = venue.timeZone;
+
+	const [crew, managers, scenes] = await Promise.all([
+		db
+			.select({
+				personId: assignments.personId,
+				name: users.name,
+				email: users.email,
+				callOverride: assignments.callOverride,
+				position: positions.name,
+				roomId: positions.roomId,
+				roomName: rooms.name,
+				roomOrder: rooms.position
+			})
+			.from(assignments)
+			.innerJoin(users, eq(users.id, assignments.personId))
+			.innerJoin(positions, eq(positions.id, assignments.positionId))
+			.leftJoin(rooms, and(eq(rooms.id, positions.roomId), eq(rooms.venueId, venueId)))
+			.where(and(eq(assignments.venueId, venueId), eq(assignments.showId, showId)))
+			.orderBy(asc(positions.name)),
+		db
+			.select({ name: users.name, email: users.email })
+			.from(memberships)
+			.innerJoin(users, eq(users.id, memberships.personId))
+			.where(and(eq(memberships.venueId, venueId), eq(memberships.role, 'show_manager')))
+			.orderBy(asc(users.name)),
+		sceneSheets(db, venue, showId)
+	]);
+
+	const contacts: RunSheetData['safetyContacts'] = [];
+	if (venue.safetyContactName || venue.safetyContactPhone)
+		contacts.push({
+			name: venue.safetyContactName ?? 'Safety contact',
+			role: 'Safety contact',
+			phone: venue.safetyContactPhone
+		});
+	for (const m of managers) {
+		const name = m.name ?? m.email;
+		// The safety contact is often a show manager: one line for the one person.
+		const same = contacts.find((c) => c.name === name);
+		if (same) Object.assign(same, { role: `${same.role}, show manager`, email: m.email });
+		else contacts.push({ name, role: 'Show manager', email: m.email });
+	}
+
+	const byPerson = new Map<string, typeof crew>();
+	for (const a of crew) byPerson.set(a.personId, [...(byPerson.get(a.personId) ?? []), a]);
+
+	const sheets: PersonRunSheet[] = [];
+	for (const [personId, mine] of byPerson) {
+		const callAt = new Date(
+			Math.min(...mine.map((a) => (a.callOverride ?? show.crewCall).getTime()))
+		);
+		const roomList = [
+			...new Map(
+				mine
+					.filter((a) => a.roomId && a.roomName)
+					.sort((a, b) => (a.roomOrder ?? 0) - (b.roomOrder ?? 0))
+					.map((a) => [a.roomId!, a.roomName!])
+			)
+		];
+		const roomIds = new Set(roomList.map(([id]) => id));
+		const theirScenes = scenes.filter((s) => s.roomId && roomIds.has(s.roomId));
+		const name = mine[0].name ?? mine[0].email;
+		const data: RunSheetData = {
+			venueName: venue.name,
+			address: venue.address,
+			dateLabel: localDay(show.date),
+			crewCall: localTime(callAt, tz),
+			doors: `${localTime(show.doorsOpen, tz)}–${localTime(show.doorsClose, tz)}`,
+			timeZone: tz,
+			person: { name },
+			position: [...new Set(mine.map((a) => a.position))].join(', '),
+			rooms: roomList.map(([, n]) => n),
+			scenes: theirScenes.map(({ name, room, cues, warnings }) => ({ name, room, cues, warnings })),
+			safetyContacts: contacts,
+			showStop: SHOW_STOP,
+			url: runSheetUrl(origin, venue.slug, show.id, personId)
+		};
+		sheets.push({
+			personId,
+			email: mine[0].email,
+			name,
+			callAt,
+			data,
+			summary: {
+				show: STATUS_WORDS[show.status],
+				crewCall: data.crewCall,
+				doors: data.doors,
+				position: data.position,
+				rooms: data.rooms,
+				scenes: theirScenes.map((s) => s.name),
+				stoodDown: [...new Set(theirScenes.flatMap((s) => s.stoodDownProps))],
+				assigned: true
+			},
+			contentHash: hashContent(data, show.status)
+		});
+	}
+	sheets.sort((a, b) => a.callAt.getTime() - b.callAt.getTime() || a.name.localeCompare(b.name));
+	return { venue, show, sheets };
+}
