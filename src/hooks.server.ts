@@ -8,6 +8,8 @@ import { applyMigrations } from '$lib/server/migrate';
 import { startMailQueue, stopMailQueue } from '$lib/server/mail/queue';
 import { mailDomain, sendEnvelope } from '$lib/server/mail/transport';
 import { env } from '$env/dynamic/private';
+import { objectStore } from '$lib/server/objects';
+import { startObjectCleanup, stopObjectCleanup } from '$lib/server/object-cleanup';
 import { guardHandle } from '$lib/server/hooks/guard';
 import { personHandle } from '$lib/server/hooks/person';
 import { themeHandle } from '$lib/server/hooks/theme';
@@ -17,14 +19,18 @@ export const init: ServerInit = async () => {
 	if (building) return;
 	checkConfig();
 	await applyMigrations(db);
-	await startMailQueue({
+	const boss = await startMailQueue({
 		connectionString: env.DATABASE_URL!,
 		db,
 		send: sendEnvelope,
 		domain: mailDomain()
 	});
+	await startObjectCleanup(boss, () => objectStore(env));
 	// node build waits for open pools on SIGTERM: close the queue, then the database.
-	process.once('sveltekit:shutdown', () => void stopMailQueue().finally(() => closeDb()));
+	process.once('sveltekit:shutdown', () => {
+		stopObjectCleanup();
+		void stopMailQueue().finally(() => closeDb());
+	});
 };
 
 export const handle: Handle = sequence(
