@@ -92,3 +92,47 @@ test('the calendar API checks its range and its role', async ({ page }) => {
 	});
 	expect(move.status()).toBe(403);
 });
+
+test.describe('from a device in another time zone', () => {
+	// Hollow Pines Trail keeps New York time; this browser is in Auckland, 17 to 18 hours ahead.
+	test.use({ timezoneId: 'Pacific/Auckland' });
+
+	test('the calendar keeps venue time, and dragging a one-off show asks, then moves it', async ({
+		page
+	}) => {
+		test.setTimeout(60_000);
+		await signIn(page, people.manager);
+		await page.goto(`${TRAIL}/calendar?date=2028-03-01`);
+		await expect(page.getByTestId('calendar-zone')).toContainText('America/New_York');
+		await page.getByLabel('Date', { exact: true }).fill('2028-03-08');
+		await page.getByRole('button', { name: 'Add show' }).click();
+		await expect(page.getByRole('link', { name: 'Open the new show' })).toBeVisible();
+
+		await page.goto(`${TRAIL}/calendar?date=2028-03-01`);
+		const calendar = page.getByTestId('calendar');
+		const day = (date: string) =>
+			calendar.locator('.ec-day').filter({ has: page.locator(`time[datetime="${date}"]`) });
+		const showOn = (date: string) => day(date).locator('.ec-event').filter({ hasText: 'Show' });
+		// Doors 19:00 on the venue's clock, not the device's (which reads 13:00 the next day).
+		await expect(showOn('2028-03-08')).toContainText('19:00');
+
+		// Across the US clock change of 12 March 2028: still 19:00 on the venue's clock.
+		let asked = '';
+		page.once('dialog', (d) => {
+			asked = d.message();
+			void d.accept();
+		});
+		const from = (await showOn('2028-03-08').boundingBox())!;
+		const to = (await day('2028-03-15').boundingBox())!;
+		await page.mouse.move(from.x + from.width / 2, from.y + from.height / 2);
+		await page.mouse.down();
+		await page.mouse.move(to.x + to.width / 2, to.y + to.height / 2, { steps: 12 });
+		await page.mouse.up();
+		await expect(page.getByText('Show moved to 2028-03-15.')).toBeVisible();
+		expect(asked).toContain('Move this one-off show to 2028-03-15?');
+		await expect(showOn('2028-03-15')).toContainText('19:00');
+		await expect(showOn('2028-03-08')).toHaveCount(0);
+		await page.reload();
+		await expect(showOn('2028-03-15')).toContainText('19:00');
+	});
+});
