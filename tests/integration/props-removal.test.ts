@@ -69,6 +69,11 @@ async function stocked() {
 	const photoKey = photo.file.objectKey;
 	expect(await store.exists(captureKey)).toBe(true);
 	expect(await store.exists(photoKey)).toBe(true);
+	// The store keeps exactly the bytes sent (no transfer framing around them).
+	const stored = (await store.get(photoKey)).body;
+	const chunks: Buffer[] = [];
+	for await (const c of stored) chunks.push(Buffer.from(c));
+	expect(Buffer.concat(chunks).equals(PNG_1x1)).toBe(true);
 	return { venue, prop, sensor, capture: cap.capture, photo: photo.file, captureKey, photoKey };
 }
 
