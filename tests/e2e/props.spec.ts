@@ -87,7 +87,9 @@ test('a designer registers a capacitive prop with an LED string, calibrates it a
 	await expect(page.getByText('perch.png uploaded.')).toBeVisible();
 	const photo = page.getByRole('img', { name: 'Photo of Raven perch: perch.png' });
 	await expect(photo).toBeVisible();
-	await expect.poll(() => photo.evaluate((img: HTMLImageElement) => img.naturalWidth)).toBe(1);
+	const served = await page.request.get((await photo.getAttribute('src'))!);
+	expect(served.headers()['content-type']).toBe('image/png');
+	expect(Buffer.from(await served.body()).equals(PNG_1x1)).toBe(true);
 	await page.getByRole('button', { name: 'Remove perch.png' }).click();
 	await expect(photo).toHaveCount(0);
 
