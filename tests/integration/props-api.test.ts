@@ -4,6 +4,7 @@ import { controllers, propFiles, props } from '../../src/lib/server/db/schema';
 import { MOVE_SHOW_BODY } from '../../src/lib/schemas/schedule';
 import { makePerson, makeVenue, testDb } from './db';
 import { asSession, callAction, callHandler, useTestEnv } from './routes';
+import { PNG_1x1 } from './uploads';
 
 // The JSON API and a few form actions, called as the server calls them (real Request, params and
 // the venue hook), against the test database and the object-store fake.
@@ -17,11 +18,6 @@ const sensorsApi = await import('../../src/routes/api/v/[venue]/props/[prop]/sen
 const filesApi = await import('../../src/routes/api/v/[venue]/props/[prop]/files/+server');
 const calendarApi = await import('../../src/routes/api/v/[venue]/calendar/+server');
 const controllersPage = await import('../../src/routes/(app)/v/[venue]/controllers/+page.server');
-
-const PNG_1x1 = Buffer.from(
-	'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==',
-	'base64'
-);
 
 let slug: string;
 let venueId: string;
@@ -246,17 +242,17 @@ describe('controllers page', () => {
 		supplyRatingA: '2'
 	};
 	const at = () => ({ path: `/v/${slug}/controllers`, params: { venue: slug } });
-
-	it('changes a controller with the same checks as adding one', async () => {
+	async function gateBoard() {
+		const numbers = Object.entries(fields).map(([k, v]) => [k, k === 'name' ? v : Number(v)]);
 		const [c] = await db
 			.insert(controllers)
-			.values({
-				venueId,
-				...Object.fromEntries(
-					Object.entries(fields).map(([k, v]) => [k, k === 'name' ? v : Number(v)])
-				)
-			} as typeof controllers.$inferInsert)
+			.values({ venueId, ...Object.fromEntries(numbers) } as typeof controllers.$inferInsert)
 			.returning();
+		return c;
+	}
+
+	it('changes a controller with the same checks as adding one', async () => {
+		const c = await gateBoard();
 		const bad = await callAction(controllersPage.actions.save as never, {
 			...at(),
 			person: designer,
@@ -285,15 +281,7 @@ describe('controllers page', () => {
 	});
 
 	it('will not remove a controller props still use, unless asked to set them to none', async () => {
-		const [c] = await db
-			.insert(controllers)
-			.values({
-				venueId,
-				...Object.fromEntries(
-					Object.entries(fields).map(([k, v]) => [k, k === 'name' ? v : Number(v)])
-				)
-			} as typeof controllers.$inferInsert)
-			.returning();
+		const c = await gateBoard();
 		const [p] = await db
 			.insert(props)
 			.values({ venueId, name: 'Gate skull', controllerId: c.id })

@@ -1,4 +1,4 @@
-import { describe, expect, inject, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { captures, propFiles, props, sensors } from '../../src/lib/server/db/schema';
 import { ObjectStore } from '../../src/lib/server/objects';
@@ -11,22 +11,13 @@ import {
 	removeSensor
 } from '../../src/lib/server/props/removal';
 import { makePerson, makeVenue, testDb } from './db';
+import { PNG_1x1, testStore, uploadBody } from './uploads';
 
 const db = testDb();
-const store = new ObjectStore({
-	endpoint: inject('s3Endpoint'),
-	bucket: 'gloaming-it',
-	accessKeyId: 'S3RVER',
-	secretAccessKey: 'S3RVER'
-});
+const store = testStore();
 
-const PNG_1x1 = Buffer.from(
-	'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==',
-	'base64'
-);
 const CSV = 'reading,label\n100,idle\n101,idle\n160,present\n162,present\n';
-const body = (data: string | Uint8Array) =>
-	new Request('http://x/', { method: 'POST', body: data as BodyInit });
+const body = uploadBody;
 
 /** A prop with one sensor, one capture and one photo, all in the store. */
 async function stocked() {

@@ -1,10 +1,7 @@
 import { beforeAll, describe, expect, it, vi } from 'vitest';
 import { assignments, positions } from '../../src/lib/server/db/schema';
-import {
-	createSeason,
-	seasonShows,
-	type SeasonFields
-} from '../../src/lib/server/schedule/seasons';
+import { createSeason, seasonShows } from '../../src/lib/server/schedule/seasons';
+import { autumn } from './autumn';
 import { makePerson, makeVenue, testDb } from './db';
 import { asSession, callAction, useTestEnv } from './routes';
 
@@ -15,17 +12,6 @@ useTestEnv();
 const db = testDb();
 const page = await import('../../src/routes/(app)/v/[venue]/seasons/[season]/+page.server');
 
-const autumn: SeasonFields = {
-	name: 'Autumn 2027',
-	firstNight: '2027-10-01',
-	rule: 'FREQ=WEEKLY;BYDAY=FR,SA;UNTIL=20271031',
-	doorsOpen: '19:00',
-	doorsClose: '23:00',
-	crewCallMinutesBefore: 120,
-	darkNights: ['2027-10-16'],
-	extraNights: [],
-	openingNight: '2027-10-01'
-};
 // The same season on Saturdays only: the five Fridays leave it.
 const saturdaysOnly = {
 	name: 'Autumn 2027',
