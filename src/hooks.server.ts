@@ -9,6 +9,8 @@ import { startMailQueue, stopMailQueue } from '$lib/server/mail/queue';
 import { mailDomain, sendEnvelope } from '$lib/server/mail/transport';
 import { startRunSheetSweep } from '$lib/server/runsheets/timer';
 import { env } from '$env/dynamic/private';
+import { objectStore } from '$lib/server/objects';
+import { startObjectCleanup, stopObjectCleanup } from '$lib/server/object-cleanup';
 import { guardHandle } from '$lib/server/hooks/guard';
 import { personHandle } from '$lib/server/hooks/person';
 import { themeHandle } from '$lib/server/hooks/theme';
@@ -25,8 +27,12 @@ export const init: ServerInit = async () => {
 		domain: mailDomain()
 	});
 	await startRunSheetSweep(boss, db, config.origin);
+	await startObjectCleanup(boss, () => objectStore(env));
 	// node build waits for open pools on SIGTERM: close the queue, then the database.
-	process.once('sveltekit:shutdown', () => void stopMailQueue().finally(() => closeDb()));
+	process.once('sveltekit:shutdown', () => {
+		stopObjectCleanup();
+		void stopMailQueue().finally(() => closeDb());
+	});
 };
 
 export const handle: Handle = sequence(

@@ -14,6 +14,11 @@ function captureCsv(rows = 400) {
 	return lines.join('\n') + '\n';
 }
 
+const PNG_1x1 = Buffer.from(
+	'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==',
+	'base64'
+);
+
 test('a designer registers a capacitive prop with an LED string, calibrates it and downloads the level table', async ({
 	page
 }) => {
@@ -72,9 +77,41 @@ test('a designer registers a capacitive prop with an LED string, calibrates it a
 	await expect(page.getByText('Suggested trigger range applied.')).toBeVisible();
 	await expect(page.getByTestId('trigger-range')).not.toContainText('—');
 
-	// Output page: the level table downloads.
+	// A photo: uploaded, shown from the store, removed.
 	await page.getByRole('link', { name: '← Raven perch' }).click();
+	await page.getByLabel('Upload a photo or wiring PDF').setInputFiles({
+		name: 'perch.png',
+		mimeType: 'image/png',
+		buffer: PNG_1x1
+	});
+	await expect(page.getByText('perch.png uploaded.')).toBeVisible();
+	const photo = page.getByRole('img', { name: 'Photo of Raven perch: perch.png' });
+	await expect(photo).toBeVisible();
+	const served = await page.request.get((await photo.getAttribute('src'))!);
+	expect(served.headers()['content-type']).toBe('image/png');
+	expect(Buffer.from(await served.body()).equals(PNG_1x1)).toBe(true);
+	await page.getByRole('button', { name: 'Remove perch.png' }).click();
+	await expect(photo).toHaveCount(0);
+
+	// Output page: drawn points follow the pointer and the arrow keys; the level table downloads.
 	await page.getByRole('link', { name: 'Perch glow' }).click();
+	await page.getByLabel('Drawn points').check();
+	const typed = page.getByLabel(/Points, one "level, duty" per line/);
+	await expect(typed).toHaveValue('0, 0\n0.25, 0.02\n0.5, 0.15\n0.75, 0.45\n1, 1');
+	const handle = page.getByRole('button', { name: /^Point 4 of 5/ });
+	const box = (await handle.boundingBox())!;
+	await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+	await page.mouse.down();
+	await page.mouse.move(box.x + box.width / 2, box.y - 30, { steps: 5 });
+	await page.mouse.up();
+	// Dragged up: its duty rose above 0.45 (and stays at most the next point's 1).
+	await expect
+		.poll(async () => Number((await typed.inputValue()).split('\n')[3].split(', ')[1]))
+		.toBeGreaterThan(0.45);
+	await page.getByRole('button', { name: /^Point 2 of 5/ }).press('ArrowUp');
+	await expect(typed).toHaveValue(new RegExp(`^0, 0\n0\\.25, 0\\.03\n0\\.5, 0\\.15\n`));
+	await page.getByRole('button', { name: 'Save curve' }).click();
+	await expect(page.getByText('Curve saved.')).toBeVisible();
 	await expect(page.getByTestId('flicker')).toContainText('IEEE 1789');
 	const [download] = await Promise.all([
 		page.waitForEvent('download'),

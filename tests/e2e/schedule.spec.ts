@@ -92,3 +92,55 @@ test('the calendar API checks its range and its role', async ({ page }) => {
 	});
 	expect(move.status()).toBe(403);
 });
+
+test.describe('from a device in another time zone', () => {
+	// Hollow Pines Trail keeps New York time; this browser is in Auckland, 17 to 18 hours ahead.
+	test.use({ timezoneId: 'Pacific/Auckland' });
+
+	test('the calendar keeps venue time, and dragging a one-off show asks, then moves it', async ({
+		page
+	}) => {
+		test.setTimeout(60_000);
+		await signIn(page, people.manager);
+		await page.goto(`${TRAIL}/calendar?date=2028-03-01`);
+		await expect(page.getByTestId('calendar-zone')).toContainText('America/New_York');
+		await page.getByLabel('Date', { exact: true }).fill('2028-03-08');
+		await page.getByRole('button', { name: 'Add show' }).click();
+		await expect(page.getByRole('link', { name: 'Open the new show' })).toBeVisible();
+
+		await page.goto(`${TRAIL}/calendar?date=2028-03-01`);
+		const calendar = page.getByTestId('calendar');
+		const show = calendar.getByRole('button', { name: '19:00 Show' });
+		const dayNumber = (date: string) => calendar.locator(`time[datetime="${date}"]`);
+		const doorsOf = async () => {
+			const res = await page.request.get(
+				`/api/v/hollow-pines-trail/calendar?start=2028-03-01&end=2028-04-01`
+			);
+			const items = (await res.json()).items as { kind: string; start: string }[];
+			return items.filter((i) => i.kind === 'show').map((i) => i.start);
+		};
+		// Doors 19:00 on the venue's clock (EST, UTC-5), not the device's (13:00 the next day).
+		await expect(show).toBeVisible();
+		expect(await doorsOf()).toEqual(['2028-03-09T00:00:00.000Z']);
+
+		// Across the US clock change of 12 March 2028: still 19:00 on the venue's clock (EDT, UTC-4).
+		let asked = '';
+		page.once('dialog', (d) => {
+			asked = d.message();
+			void d.accept();
+		});
+		const from = (await show.boundingBox())!;
+		const to = (await dayNumber('2028-03-15').boundingBox())!;
+		await page.mouse.move(from.x + from.width / 2, from.y + from.height / 2);
+		await page.mouse.down();
+		// Into the 15th's cell, just below its day number.
+		await page.mouse.move(to.x + to.width / 2, to.y + to.height + 20, { steps: 12 });
+		await page.mouse.up();
+		await expect(page.getByText('Show moved to 2028-03-15.')).toBeVisible();
+		expect(asked).toContain('Move this one-off show to 2028-03-15?');
+		expect(await doorsOf()).toEqual(['2028-03-15T23:00:00.000Z']);
+		await expect(show).toBeVisible();
+		await page.reload();
+		await expect(show).toBeVisible();
+	});
+});

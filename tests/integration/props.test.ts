@@ -1,4 +1,4 @@
-import { describe, expect, inject, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { and, eq, sql } from 'drizzle-orm';
 import {
 	captures,
@@ -8,22 +8,15 @@ import {
 	sensors,
 	outputs
 } from '../../src/lib/server/db/schema';
-import { ObjectStore } from '../../src/lib/server/objects';
 import { ingestCapture, ingestPropFile } from '../../src/lib/server/props/uploads';
 import { listProps } from '../../src/lib/server/props/queries';
 import { propQuerySchema } from '../../src/lib/schemas/prop';
 import { makePerson, makeVenue, testDb } from './db';
+import { PNG_1x1, testStore, uploadBody } from './uploads';
 
 const db = testDb();
-const store = new ObjectStore({
-	endpoint: inject('s3Endpoint'),
-	bucket: 'gloaming-it',
-	accessKeyId: 'S3RVER',
-	secretAccessKey: 'S3RVER'
-});
-
-const body = (data: string | Uint8Array) =>
-	new Request('http://x/', { method: 'POST', body: data as BodyInit });
+const store = testStore();
+const body = uploadBody;
 
 async function setup() {
 	const person = await makePerson(db);
@@ -150,11 +143,6 @@ describe('captures', () => {
 		expect(await countCaptures(b.venue.id)).toBe(0);
 	});
 });
-
-const PNG_1x1 = Buffer.from(
-	'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==',
-	'base64'
-);
 
 describe('photos and wiring files', () => {
 	async function fileCount(venueId: string) {

@@ -9,30 +9,13 @@ import {
 	unavailability,
 	venues
 } from '../../src/lib/server/db/schema';
-import {
-	createSeason,
-	seasonShows,
-	updateSeason,
-	type SeasonFields
-} from '../../src/lib/server/schedule/seasons';
+import { createSeason, seasonShows, updateSeason } from '../../src/lib/server/schedule/seasons';
 import { showConflicts } from '../../src/lib/server/schedule/shows';
 import { feedCalendar, hashFeedToken, resetFeed } from '../../src/lib/server/schedule/feeds';
+import { autumn } from './autumn';
 import { makePerson, makeVenue, testDb } from './db';
 
 const db = testDb();
-
-// Fridays and Saturdays through October 2027, doors 19:00 to 23:00 London time.
-const autumn: SeasonFields = {
-	name: 'Autumn 2027',
-	firstNight: '2027-10-01',
-	rule: 'FREQ=WEEKLY;BYDAY=FR,SA;UNTIL=20271031',
-	doorsOpen: '19:00',
-	doorsClose: '23:00',
-	crewCallMinutesBefore: 120,
-	darkNights: ['2027-10-16'],
-	extraNights: [],
-	openingNight: '2027-10-01'
-};
 
 async function londonVenue() {
 	const person = await makePerson(db, 'Wren Holloway');

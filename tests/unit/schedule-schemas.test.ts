@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { calendarRangeSchema, seasonFormSchema } from '../../src/lib/schemas/schedule';
+import {
+	calendarRangeSchema,
+	MOVE_SHOW_BODY,
+	moveShowSchema,
+	seasonFormSchema
+} from '../../src/lib/schemas/schedule';
 
 describe('calendar range', () => {
 	it('refuses nonsense, backwards and very long ranges without throwing', () => {
@@ -49,5 +54,18 @@ describe('season form', () => {
 			seasonFormSchema.safeParse({ ...base, nights: 'FR', until: '2027-10-31', darkNights: 'soon' })
 				.success
 		).toBe(false);
+	});
+});
+
+describe('moving a show', () => {
+	const first = (body: unknown) => moveShowSchema.safeParse(body).error?.issues[0]?.message;
+	it('answers a missing or non-object body in words for people, not the parser', () => {
+		expect(first(null)).toBe(MOVE_SHOW_BODY);
+		expect(first('2026-10-16')).toBe(MOVE_SHOW_BODY);
+		expect(MOVE_SHOW_BODY).toMatch(/^Send a JSON body with showId/);
+		expect(first({ date: '2026-10-16' })).toBe('Say which show to move (showId).');
+		expect(first({ showId: crypto.randomUUID(), date: '16/10/2026' })).toBe(
+			'Give the new date as YYYY-MM-DD.'
+		);
 	});
 });

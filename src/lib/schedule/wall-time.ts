@@ -70,3 +70,18 @@ export function wallToInstant(date: string, time: string, timeZone: string): Dat
 	);
 	return new Date(fits.length > 0 ? Math.min(...fits) : floating - before);
 }
+
+/** The wall clock in a time zone at an instant, as 'YYYY-MM-DDTHH:MM:SS' without an offset. */
+export function wallText(instant: Date | string, timeZone: string): string {
+	return instantToWall(new Date(instant), timeZone).toISOString().slice(0, 19);
+}
+
+/** A time zone's offset from UTC at an instant, as '+HH:MM' or '-HH:MM'. */
+export function offsetText(timeZone: string, at: Date = new Date()): string {
+	return formatInTimeZone(at, timeZone, 'xxx');
+}
+
+/** The date on the wall calendar of a time zone at an instant, 'YYYY-MM-DD'. */
+export function dateIn(timeZone: string, at: Date = new Date()): string {
+	return wallText(at, timeZone).slice(0, 10);
+}

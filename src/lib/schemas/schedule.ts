@@ -196,10 +196,19 @@ export const assignSchema = z.object({
 		)
 });
 
-export const moveShowSchema = z.object({
-	showId: z.uuid('That show no longer exists.'),
-	date: dateText('Give the new date as YYYY-MM-DD.')
-});
+export const MOVE_SHOW_BODY =
+	'Send a JSON body with showId (the show to move) and date (its new day, YYYY-MM-DD), for example {"showId": "…", "date": "2026-10-16"}.';
+
+export const moveShowSchema = z.object(
+	{
+		showId: z.uuid({
+			error: (iss) =>
+				iss.input === undefined ? 'Say which show to move (showId).' : 'That show no longer exists.'
+		}),
+		date: dateText('Give the new date as YYYY-MM-DD.')
+	},
+	{ error: MOVE_SHOW_BODY }
+);
 
 export const dateSchema = z.object({ date: dateText('Give a date as YYYY-MM-DD.') });
 

@@ -27,6 +27,11 @@ export class ObjectStore {
 			endpoint: config.endpoint,
 			region: 'us-east-1',
 			forcePathStyle: true,
+			// Newer SDKs add CRC checksums by default, sending uploads as 'aws-chunked' bodies; stores
+			// that don't know that encoding (the local fake among them) keep the chunk framing as if it
+			// were the file. Checksums only when an operation requires them; SHA-256 is ours anyway.
+			requestChecksumCalculation: 'WHEN_REQUIRED',
+			responseChecksumValidation: 'WHEN_REQUIRED',
 			credentials: { accessKeyId: config.accessKeyId, secretAccessKey: config.secretAccessKey }
 		});
 	}

@@ -11,6 +11,7 @@ import { calibrate, captureHistograms } from '$lib/calibration';
 import type { Db } from '$lib/server/db/client';
 import { captures, propFiles, props, sensors } from '$lib/server/db/schema';
 import type { ObjectStore } from '$lib/server/objects';
+import { discardObjects } from '$lib/server/object-cleanup';
 
 export const CAPTURE_MAX_BYTES = 50 * 1024 * 1024;
 export const IMAGE_MAX_BYTES = 10 * 1024 * 1024;
@@ -190,6 +191,7 @@ export async function ingestCapture(opts: {
 		const filename = cleanFilename(opts.filename, 'capture.csv');
 		const objectKey = `venues/${venueId}/captures/${randomUUID()}.csv`;
 		await store.putFile(objectKey, spooled.path, 'text/csv');
+		// The sensor or prop may have been removed meanwhile: then the object must not stay behind.
 		const [row] = await db
 			.insert(captures)
 			.values({
@@ -205,7 +207,11 @@ export async function ingestCapture(opts: {
 				summary: summary as unknown as Record<string, unknown>,
 				uploadedBy: opts.personId
 			})
-			.returning();
+			.returning()
+			.catch(async (e: unknown) => {
+				await discardObjects(store, [objectKey]);
+				throw e;
+			});
 		return { ok: true as const, capture: row };
 	} finally {
 		await rm(spooled.dir, { recursive: true, force: true });
@@ -255,6 +261,7 @@ export async function ingestPropFile(opts: {
 		const ext = sniffed!.ext;
 		const objectKey = `venues/${venueId}/props/${propId}/${randomUUID()}.${ext}`;
 		await store.putFile(objectKey, spooled.path, mime);
+		// The sensor or prop may have been removed meanwhile: then the object must not stay behind.
 		const [row] = await db
 			.insert(propFiles)
 			.values({
@@ -268,7 +275,11 @@ export async function ingestPropFile(opts: {
 				sha256: spooled.sha256,
 				uploadedBy: opts.personId
 			})
-			.returning();
+			.returning()
+			.catch(async (e: unknown) => {
+				await discardObjects(store, [objectKey]);
+				throw e;
+			});
 		return { ok: true as const, file: row };
 	} finally {
 		await rm(spooled.dir, { recursive: true, force: true });

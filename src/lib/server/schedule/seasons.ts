@@ -1,7 +1,7 @@
-import { and, asc, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { expandSeason, type ShowNight } from '../../schedule';
 import type { Db } from '../db/client';
-import { seasons, shows } from '../db/schema';
+import { assignments, seasons, shows } from '../db/schema';
 
 export interface SeasonFields {
 	name: string;
@@ -37,6 +37,58 @@ export interface RegenerateResult {
 	updated: number;
 	removed: number;
 	kept: number;
+	/** Untouched shows that left the rule but stay: crew are assigned, or removal was not confirmed. */
+	stayed: number;
+}
+
+/** Which untouched shows that left the rule may go; the rest stay as they are. */
+export interface RemovalChoice {
+	/** Dates the manager confirmed removing ('all' when nothing needs asking, e.g. a new season). */
+	confirmed: 'all' | Set<string>;
+	/** Remove nights that have crew assigned too (their assignments go with them). */
+	assigned: boolean;
+}
+
+export interface LeavingShow {
+	id: string;
+	date: string;
+	assignments: number;
+}
+
+type Reader = Pick<Db, 'select'>;
+
+/**
+ * Untouched shows of a season whose dates are not among these nights: what saving would remove.
+ * Shows changed by hand are never removed, so they are not listed.
+ */
+export async function leavingShows(
+	db: Reader,
+	venueId: string,
+	seasonId: string,
+	nights: Pick<ShowNight, 'date'>[]
+): Promise<LeavingShow[]> {
+	const wanted = new Set(nights.map((n) => n.date));
+	const rows = await db
+		.select({
+			id: shows.id,
+			date: shows.date,
+			assignments: sql<number>`count(${assignments.id})::int`
+		})
+		.from(shows)
+		.leftJoin(assignments, eq(assignments.showId, shows.id))
+		.where(and(eq(shows.venueId, venueId), eq(shows.seasonId, seasonId), eq(shows.edited, false)))
+		.groupBy(shows.id)
+		.orderBy(asc(shows.date));
+	return rows.filter((r) => !wanted.has(r.date));
+}
+
+/** The leaving shows that a choice removes. */
+export function removedBy(leaving: LeavingShow[], choice: RemovalChoice) {
+	return leaving.filter(
+		(s) =>
+			(choice.assigned || s.assignments === 0) &&
+			(choice.confirmed === 'all' || choice.confirmed.has(s.date))
+	);
 }
 
 /**
@@ -47,7 +99,8 @@ export async function regenerateShows(
 	db: Db,
 	venueId: string,
 	seasonId: string,
-	timeZone: string
+	timeZone: string,
+	removal: RemovalChoice = { confirmed: 'all', assigned: false }
 ): Promise<RegenerateResult> {
 	return db.transaction(async (tx) => {
 		const [season] = await tx
@@ -63,13 +116,15 @@ export async function regenerateShows(
 			.where(and(eq(shows.venueId, venueId), eq(shows.seasonId, seasonId)));
 		const byDate = new Map(existing.map((s) => [s.date, s]));
 		const wanted = new Set(nights.map((n) => n.date));
-		const result: RegenerateResult = { added: 0, updated: 0, removed: 0, kept: 0 };
+		const result: RegenerateResult = { added: 0, updated: 0, removed: 0, kept: 0, stayed: 0 };
 
-		const stale = existing.filter((s) => !s.edited && !wanted.has(s.date)).map((s) => s.id);
+		const leaving = await leavingShows(tx, venueId, seasonId, nights);
+		const stale = removedBy(leaving, removal).map((s) => s.id);
 		if (stale.length) {
 			await tx.delete(shows).where(and(eq(shows.venueId, venueId), inArray(shows.id, stale)));
 			result.removed = stale.length;
 		}
+		result.stayed = leaving.length - stale.length;
 		for (const night of nights) {
 			const opening = season.openingNight === night.date;
 			const show = byDate.get(night.date);
@@ -135,7 +190,8 @@ export async function updateSeason(
 	venueId: string,
 	seasonId: string,
 	timeZone: string,
-	fields: SeasonFields
+	fields: SeasonFields,
+	removal?: RemovalChoice
 ) {
 	const done = await db
 		.update(seasons)
@@ -143,7 +199,7 @@ export async function updateSeason(
 		.where(and(eq(seasons.id, seasonId), eq(seasons.venueId, venueId)))
 		.returning();
 	if (!done.length) return null;
-	return regenerateShows(db, venueId, seasonId, timeZone);
+	return regenerateShows(db, venueId, seasonId, timeZone, removal);
 }
 
 export function seasonShows(db: Db, venueId: string, seasonId: string) {

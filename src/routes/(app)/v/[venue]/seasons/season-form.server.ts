@@ -1,7 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import { SeasonRuleError, describeRule } from '$lib/schedule';
 import { parseForm, keep } from '$lib/server/forms';
-import { previewNights, type SeasonFields } from '$lib/server/schedule/seasons';
+import { previewNights, type LeavingShow, type SeasonFields } from '$lib/server/schedule/seasons';
 import { seasonFormSchema } from '$lib/schemas/schedule';
 import { localTime } from '$lib/util/when';
 
@@ -9,7 +9,11 @@ import { localTime } from '$lib/util/when';
 export async function readSeasonForm(request: Request, timeZone: string) {
 	const parsed = await parseForm(request, seasonFormSchema);
 	const raw = parsed.raw;
-	const values = { ...keep(raw), nights: [raw.nights ?? []].flat().map(String) };
+	// The removal ticks are asked afresh after each answer, so they are not kept.
+	const values = {
+		...keep(raw, 'confirmRemoval', 'removeAssigned'),
+		nights: [raw.nights ?? []].flat().map(String)
+	};
 	if (!parsed.ok)
 		return { ok: false as const, failure: fail(400, { values, errors: parsed.errors }) };
 	try {
@@ -23,7 +27,20 @@ export async function readSeasonForm(request: Request, timeZone: string) {
 				})
 			};
 		}
-		return { ok: true as const, fields: parsed.data as SeasonFields, nights, values };
+		return {
+			ok: true as const,
+			fields: parsed.data as SeasonFields,
+			nights,
+			values,
+			removal: {
+				confirmed: new Set(
+					typeof raw.confirmRemoval === 'string'
+						? raw.confirmRemoval.split(',').filter(Boolean)
+						: []
+				),
+				assigned: raw.removeAssigned === 'on'
+			}
+		};
 	} catch (e) {
 		if (e instanceof SeasonRuleError) {
 			const field = raw.ruleMode === 'typed' ? 'rule' : 'firstNight';
@@ -40,7 +57,8 @@ export async function readSeasonForm(request: Request, timeZone: string) {
 export function previewOf(
 	fields: SeasonFields,
 	nights: ReturnType<typeof previewNights>,
-	timeZone: string
+	timeZone: string,
+	leaving: LeavingShow[] = []
 ) {
 	return {
 		summary: describeRule(fields.rule),
@@ -53,6 +71,7 @@ export function previewOf(
 			extra: n.extra,
 			opening: n.date === fields.openingNight
 		})),
-		darkNights: fields.darkNights
+		darkNights: fields.darkNights,
+		leaving: leaving.map((s) => ({ date: s.date, assignments: s.assignments }))
 	};
 }

@@ -11,6 +11,7 @@ import type { RequestHandler } from './$types';
 
 export interface CalendarItem {
 	id: string;
+	/** Timed items: an ISO instant with Z. All-day items (dark nights): the venue's date. */
 	kind: 'show' | 'call' | 'dark';
 	start: string;
 	end: string;
@@ -34,8 +35,9 @@ export const GET: RequestHandler = async (event) => {
 	const to = range.data.end;
 	const start = wallToInstant(from, '00:00', tz);
 	const end = wallToInstant(to, '00:00', tz);
-	// The calendar shows the venue's wall clock, so times go out without an offset.
-	const wall = (at: Date) => instantToWall(at, tz).toISOString().slice(0, 19);
+	// Timed items go out as instants (UTC); the page turns them into the venue's wall clock, since
+	// the calendar component knows fixed offsets only. All-day items are the venue's dates.
+	const wall = (at: Date) => at.toISOString();
 	const person = event.locals.person!;
 	const items: CalendarItem[] = [];
 	let list = await showsBetween(db, venue.id, start, end);

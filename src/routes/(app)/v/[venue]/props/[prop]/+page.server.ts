@@ -4,7 +4,11 @@ import { z } from 'zod';
 import { EDITORS, requireRole } from '$lib/server/auth/guard';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db';
-import { outputs, propFiles, props, sensors } from '$lib/server/db/schema';
+import { env } from '$env/dynamic/private';
+import { outputs, props, sensors } from '$lib/server/db/schema';
+import { objectStore } from '$lib/server/objects';
+import { discardObjects } from '$lib/server/object-cleanup';
+import { removeProp, removePropFile, removeSensor } from '$lib/server/props/removal';
 import { keep, parseForm } from '$lib/server/forms';
 import { parseNestedForm } from '$lib/server/props/form';
 import { getProp, ownsRefs, venueControllers, venueRooms } from '$lib/server/props/queries';
@@ -101,15 +105,8 @@ export const actions: Actions = {
 		const prop = await editableProp(event, venue);
 		const parsed = await parseForm(event.request, idSchema);
 		if (!parsed.ok) return fail(400, { message: 'That sensor does not exist.' });
-		await db
-			.delete(sensors)
-			.where(
-				and(
-					eq(sensors.id, parsed.data.id),
-					eq(sensors.venueId, venue.id),
-					eq(sensors.propId, prop.id)
-				)
-			);
+		const removal = await removeSensor(db, venue.id, prop.id, parsed.data.id);
+		await discardObjects(objectStore(env), removal.keys);
 		return { removed: true };
 	},
 	removeOutput: async (event) => {
@@ -133,21 +130,15 @@ export const actions: Actions = {
 		const prop = await editableProp(event, venue);
 		const parsed = await parseForm(event.request, idSchema);
 		if (!parsed.ok) return fail(400, { message: 'That file does not exist.' });
-		await db
-			.delete(propFiles)
-			.where(
-				and(
-					eq(propFiles.id, parsed.data.id),
-					eq(propFiles.venueId, venue.id),
-					eq(propFiles.propId, prop.id)
-				)
-			);
+		const removal = await removePropFile(db, venue.id, prop.id, parsed.data.id);
+		await discardObjects(objectStore(env), removal.keys);
 		return { removed: true };
 	},
 	remove: async (event) => {
 		const venue = requireRole(event, ...EDITORS);
 		const prop = await editableProp(event, venue);
-		await db.delete(props).where(and(eq(props.id, prop.id), eq(props.venueId, venue.id)));
+		const removal = await removeProp(db, venue.id, prop.id);
+		await discardObjects(objectStore(env), removal.keys);
 		await audit(db, {
 			venueId: venue.id,
 			personId: event.locals.person!.id,

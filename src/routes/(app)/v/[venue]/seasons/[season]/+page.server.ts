@@ -6,7 +6,7 @@ import { PLANNERS, requireRole } from '$lib/server/auth/guard';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db';
 import { seasons } from '$lib/server/db/schema';
-import { seasonShows, updateSeason } from '$lib/server/schedule/seasons';
+import { leavingShows, removedBy, seasonShows, updateSeason } from '$lib/server/schedule/seasons';
 import { localTime } from '$lib/util/when';
 import { previewOf, readSeasonForm } from '../season-form.server';
 import type { Actions, PageServerLoad } from './$types';
@@ -70,20 +70,46 @@ export const load: PageServerLoad = async (event) => {
 export const actions: Actions = {
 	preview: async (event) => {
 		const venue = requireRole(event, ...PLANNERS);
+		if (!(await findSeason(venue.id, event.params.season)))
+			return fail(404, { message: 'That season no longer exists.' });
 		const read = await readSeasonForm(event.request, venue.timeZone);
 		if (!read.ok) return read.failure;
-		return { values: read.values, preview: previewOf(read.fields, read.nights, venue.timeZone) };
+		const leaving = await leavingShows(db, venue.id, event.params.season, read.nights);
+		return {
+			values: read.values,
+			preview: previewOf(read.fields, read.nights, venue.timeZone, leaving)
+		};
 	},
 	save: async (event) => {
 		const venue = requireRole(event, ...PLANNERS);
+		if (!(await findSeason(venue.id, event.params.season)))
+			return fail(404, { message: 'That season no longer exists.' });
 		const read = await readSeasonForm(event.request, venue.timeZone);
 		if (!read.ok) return read.failure;
+		// Nights that leave the rule go only when the manager has seen and ticked them (nights with
+		// crew assigned only with the second tick); otherwise the preview comes back asking.
+		const leaving = await leavingShows(db, venue.id, event.params.season, read.nights);
+		const going = removedBy(leaving, { confirmed: 'all', assigned: read.removal.assigned });
+		const unconfirmed = going.filter((s) => !read.removal.confirmed.has(s.date));
+		if (unconfirmed.length) {
+			const n = going.length;
+			return fail(400, {
+				values: read.values,
+				preview: previewOf(read.fields, read.nights, venue.timeZone, leaving),
+				errors: {
+					confirmRemoval: [
+						`Saving removes ${n === 1 ? 'a night' : `${n} nights`} that ${n === 1 ? 'is' : 'are'} no longer in the season (listed below). Tick “Remove the nights listed” to go ahead.`
+					]
+				}
+			});
+		}
 		const result = await updateSeason(
 			db,
 			venue.id,
 			event.params.season,
 			venue.timeZone,
-			read.fields
+			read.fields,
+			read.removal
 		);
 		if (!result)
 			return fail(404, { values: read.values, message: 'That season no longer exists.' });

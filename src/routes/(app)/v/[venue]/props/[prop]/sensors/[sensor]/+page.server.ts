@@ -11,6 +11,10 @@ import { getController, getProp, isUuid } from '$lib/server/props/queries';
 import { sensorFormValues, sensorValues, touchProp } from '$lib/server/props/records';
 import type { StoredCaptureSummary } from '$lib/server/props/uploads';
 import { sensorSchema } from '$lib/schemas/sensor';
+import { env } from '$env/dynamic/private';
+import { objectStore } from '$lib/server/objects';
+import { discardObjects } from '$lib/server/object-cleanup';
+import { removeCapture } from '$lib/server/props/removal';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 async function find(event: RequestEvent | Parameters<PageServerLoad>[0], venueId: string) {
@@ -131,5 +135,22 @@ export const actions: Actions = {
 			detail: { sensor: sensor.name, capture: capture.filename, ...range }
 		});
 		return { action: 'apply', applied: true };
+	},
+	removeCapture: async (event) => {
+		const venue = requireRole(event, ...EDITORS);
+		const { sensor } = await find(event, venue.id);
+		const parsed = await parseForm(event.request, z.object({ captureId: z.uuid() }));
+		if (!parsed.ok)
+			return fail(400, { action: 'removeCapture', message: 'That capture does not exist.' });
+		const removal = await removeCapture(db, venue.id, sensor.id, parsed.data.captureId);
+		await discardObjects(objectStore(env), removal.keys);
+		if (removal.removed)
+			await audit(db, {
+				venueId: venue.id,
+				personId: event.locals.person!.id,
+				action: 'capture.removed',
+				detail: { sensor: sensor.name }
+			});
+		return { action: 'removeCapture', removed: removal.removed };
 	}
 };
