@@ -4,3 +4,4 @@ export * from './schedule.schema';
 export * from './mail.schema';
 export * from './props.schema';
 export * from './scenes.schema';
+export * from './checklists.schema';
