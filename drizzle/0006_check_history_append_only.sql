@@ -3,8 +3,11 @@
 -- depth 2) are let through; a statement run directly (depth 1) is refused.
 CREATE OR REPLACE FUNCTION gloaming_refuse_history_change() RETURNS trigger AS $$
 BEGIN
+	IF pg_trigger_depth() > 1 AND TG_OP = 'DELETE' THEN
+		RETURN OLD;
+	END IF;
 	IF pg_trigger_depth() > 1 THEN
-		RETURN CASE WHEN TG_OP = 'DELETE' THEN OLD ELSE NEW END;
+		RETURN NEW;
 	END IF;
 	RAISE EXCEPTION '% is append-only: record a new entry instead of changing one', TG_TABLE_NAME
 		USING ERRCODE = 'restrict_violation';
