@@ -52,6 +52,19 @@ const pages: {
 		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027'],
 		name: 'show'
 	},
+	{
+		role: 'owner',
+		path: `${TRAIL}/seasons`,
+		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027', 'Printable checklist'],
+		name: 'checklist-print'
+	},
+	{ role: 'manager', path: `${TRAIL}/safety`, name: 'safety-items' },
+	{
+		role: 'crew',
+		path: `${TRAIL}/my-nights`,
+		follow: ['Checklist for Fri 1 Oct 2027'],
+		name: 'crew-checklist'
+	},
 	{ role: 'owner', path: `${TRAIL}/mail`, name: 'mail-log' },
 	{ role: 'owner', path: `${TRAIL}/mail/preview`, name: 'mail-preview' },
 	{ role: 'manager', path: `${TRAIL}/mail`, name: 'manager-mail-log' },
