@@ -80,7 +80,9 @@ test('crew checking off pre-show sensor tests: readings on a phone, live progres
 	await expect(refusal).toContainText(`Failed: ${PLATE}`);
 
 	// The prop is stood down with a reason; its scene holds its safe state; then the night is signed.
-	await manager.getByLabel('Prop').selectOption({ label: 'Hand in the well (failing)' });
+	await manager
+		.getByLabel('Prop', { exact: true })
+		.selectOption({ label: 'Hand in the well (failing)' });
 	await manager
 		.getByLabel('Reason')
 		.fill('Plate reads high after the rain; lanterns held at full.');
