@@ -40,7 +40,11 @@ export async function venueItems(db: Db, venueId: string, includeRetired = false
 }
 
 /** What the generator needs for one show, read from the scenes that run that night. */
-export async function checklistSpecs(db: Db, venueId: string, showId: string): Promise<CheckSpec[]> {
+export async function checklistSpecs(
+	db: Db,
+	venueId: string,
+	showId: string
+): Promise<CheckSpec[]> {
 	const night = await scenesForShow(db, venueId, showId);
 	const propIds = [...new Set(night.flatMap((s) => s.propIds))];
 	const [roomRows, propRows, sensorRows, outputRows, items] = await Promise.all([
@@ -115,12 +119,26 @@ export async function checklistSpecs(db: Db, venueId: string, showId: string): P
  * already recorded stay with their check; lines no longer generated are marked removed, never
  * deleted. A signed-off night is frozen as it was signed.
  */
-export async function syncChecklist(db: Db, venueId: string, showId: string) {
+export async function syncChecklist(
+	db: Db,
+	venueId: string,
+	showId: string,
+	options: { onlyIfEmpty?: boolean } = {}
+) {
 	const [signed] = await db
 		.select({ id: signOffs.id })
 		.from(signOffs)
 		.where(eq(signOffs.showId, showId));
 	if (signed) return;
+	if (options.onlyIfEmpty) {
+		// Summaries (Tonight) only need a list to exist; the show and checklist pages refresh it.
+		const [any] = await db
+			.select({ id: checks.id })
+			.from(checks)
+			.where(eq(checks.showId, showId))
+			.limit(1);
+		if (any) return;
+	}
 	const specs = await checklistSpecs(db, venueId, showId);
 	if (specs.length) {
 		await db
@@ -147,7 +165,12 @@ export async function syncChecklist(db: Db, venueId: string, showId: string) {
 				eq(checks.showId, showId),
 				eq(checks.venueId, venueId),
 				isNull(checks.removedAt),
-				specs.length ? notInArray(checks.key, specs.map((s) => s.key)) : undefined
+				specs.length
+					? notInArray(
+							checks.key,
+							specs.map((s) => s.key)
+						)
+					: undefined
 			)
 		);
 }

@@ -35,7 +35,7 @@ export const load: PageServerLoad = async (event) => {
 		const canOpen = venue.role === 'owner' || venue.role === 'show_manager' || mine.length > 0;
 		let checklist = null;
 		if (canOpen && show.status === 'scheduled') {
-			await syncChecklist(db, venue.id, show.id);
+			await syncChecklist(db, venue.id, show.id, { onlyIfEmpty: true });
 			const state = await loadChecklist(db, venue, show.id);
 			const states = state.checks.map(stateOf);
 			checklist = {
