@@ -26,6 +26,8 @@ const pages: {
 	path: PagePath;
 	name: string;
 	follow?: string[];
+	/** A long page: its full-page screenshots need more time on a loaded machine. */
+	slow?: boolean;
 }[] = [
 	{ role: null, path: '/sign-in', name: 'sign-in' },
 	{ role: null, path: '/sign-in/check-email', name: 'check-email' },
@@ -63,7 +65,8 @@ const pages: {
 		role: 'crew',
 		path: `${TRAIL}/my-nights`,
 		follow: ['Checklist for Fri 1 Oct 2027'],
-		name: 'crew-checklist'
+		name: 'crew-checklist',
+		slow: true
 	},
 	{ role: 'owner', path: `${TRAIL}/mail`, name: 'mail-log' },
 	{ role: 'owner', path: `${TRAIL}/mail/preview`, name: 'mail-preview' },
@@ -116,6 +119,7 @@ test.beforeAll(async ({ browser }, info) => {
 for (const theme of ['dusk', 'low-light'] as const) {
 	for (const p of pages) {
 		test(`${p.name} passes the accessibility check (${theme})`, async ({ browser, baseURL }) => {
+			if (p.slow) test.slow();
 			const context = await browser.newContext({
 				baseURL,
 				storageState: p.role ? sessions.get(p.role) : undefined
