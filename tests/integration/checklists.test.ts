@@ -220,15 +220,13 @@ describe('generating a show checklist', () => {
 				lengthMs: 3000
 			})
 			.returning();
-		await db
-			.insert(sceneCues)
-			.values({
-				venueId: n.venue.id,
-				sceneId: hiss.id,
-				outputId: n.valve.id,
-				startMs: 0,
-				action: { type: 'pulse', durationMs: 200 }
-			});
+		await db.insert(sceneCues).values({
+			venueId: n.venue.id,
+			sceneId: hiss.id,
+			outputId: n.valve.id,
+			startMs: 0,
+			action: { type: 'pulse', durationMs: 200 }
+		});
 		await syncChecklist(db, n.venue.id, n.show.id);
 		const after = await loadChecklist(db, n.ctx('crew'), n.show.id);
 		expect(after.checks.map((c) => c.key)).toEqual(

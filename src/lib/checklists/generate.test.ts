@@ -1,7 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { generateChecklist, type GenInput } from './generate';
 
-const band = { direction: 'up' as const, enter: 510, exit: 505, baselineLow: 495, baselineHigh: 505 };
+const band = {
+	direction: 'up' as const,
+	enter: 510,
+	exit: 505,
+	baselineLow: 495,
+	baselineHigh: 505
+};
 
 const input: GenInput = {
 	rooms: [
@@ -36,7 +42,14 @@ const input: GenInput = {
 			relayKind: 'pneumatic',
 			safeState: 'de_energised'
 		},
-		{ id: 'o-fog', propId: 'p-mist', name: 'Fog', kind: 'relay', relayKind: 'fog', safeState: 'off' }
+		{
+			id: 'o-fog',
+			propId: 'p-mist',
+			name: 'Fog',
+			kind: 'relay',
+			relayKind: 'fog',
+			safeState: 'off'
+		}
 	],
 	strobeSceneRooms: [],
 	venueItems: [

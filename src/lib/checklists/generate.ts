@@ -6,9 +6,7 @@ export type CheckKind = (typeof CHECK_KINDS)[number];
 
 /** How a check is worked: two readings against a band, or a plain pass or fail. */
 export type CheckExpected =
-	| { mode: 'reading'; band: ReadingBand }
-	| { mode: 'walk'; why: string }
-	| { mode: 'pass_fail' };
+	{ mode: 'reading'; band: ReadingBand } | { mode: 'walk'; why: string } | { mode: 'pass_fail' };
 
 export interface GenRoom {
 	id: string;
@@ -69,7 +67,6 @@ export interface CheckSpec {
 
 /** Sensor kinds whose reading is a number to compare with a calibrated band. */
 export const READING_KINDS = ['capacitive', 'ranging'];
-
 
 const pad = (n: number) => String(n).padStart(4, '0');
 
@@ -199,7 +196,11 @@ export function generateChecklist(input: GenInput): CheckSpec[] {
 				'detector plan in place for fog',
 				'Smoke detectors near the fog are handled as agreed with the authority having jurisdiction (ANSI E1.5, E1.23).'
 			);
-			item('fog-fluid', 'fog fluid level checked', 'Enough fluid for the night, and the right fluid.');
+			item(
+				'fog-fluid',
+				'fog fluid level checked',
+				'Enough fluid for the night, and the right fluid.'
+			);
 		}
 		if (kinds.has('strobe')) strobeRooms.add(prop.roomId);
 	});

@@ -79,7 +79,15 @@ export function progressByRoom(checks: CheckView[]): RoomProgress[] {
 		const k = c.roomId ?? '';
 		let r = rooms.get(k);
 		if (!r) {
-			r = { roomId: c.roomId, roomName: c.roomName, total: 0, pass: 0, fail: 0, open: 0, stood_down: 0 };
+			r = {
+				roomId: c.roomId,
+				roomName: c.roomName,
+				total: 0,
+				pass: 0,
+				fail: 0,
+				open: 0,
+				stood_down: 0
+			};
 			rooms.set(k, r);
 		}
 		r.total++;

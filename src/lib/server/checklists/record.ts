@@ -48,7 +48,11 @@ export async function recordResult(
 	if (earlier) {
 		if (earlier.checkId === input.checkId && earlier.venueId === venueId)
 			return { ok: true, result: earlier, replay: true };
-		return { ok: false, status: 409, message: 'That result id was already used for another check.' };
+		return {
+			ok: false,
+			status: 409,
+			message: 'That result id was already used for another check.'
+		};
 	}
 
 	const [signed] = await db
@@ -56,7 +60,11 @@ export async function recordResult(
 		.from(signOffs)
 		.where(eq(signOffs.showId, showId));
 	if (signed)
-		return { ok: false, status: 409, message: 'This night is signed off; its checklist is closed.' };
+		return {
+			ok: false,
+			status: 409,
+			message: 'This night is signed off; its checklist is closed.'
+		};
 
 	const [check] = await db
 		.select()
