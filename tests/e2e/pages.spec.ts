@@ -26,6 +26,8 @@ const pages: {
 	path: PagePath;
 	name: string;
 	follow?: string[];
+	/** A long page: its full-page screenshots need more time on a loaded machine. */
+	slow?: boolean;
 }[] = [
 	{ role: null, path: '/sign-in', name: 'sign-in' },
 	{ role: null, path: '/sign-in/check-email', name: 'check-email' },
@@ -75,6 +77,20 @@ const pages: {
 		follow: ['Fri 1 Oct 2027', 'Your run sheet'],
 		name: 'crew-run-sheets'
 	},
+	{
+		role: 'owner',
+		path: `${TRAIL}/seasons`,
+		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027', 'Printable checklist'],
+		name: 'checklist-print'
+	},
+	{ role: 'manager', path: `${TRAIL}/safety`, name: 'safety-items' },
+	{
+		role: 'crew',
+		path: `${TRAIL}/my-nights`,
+		follow: ['Checklist for Fri 1 Oct 2027'],
+		name: 'crew-checklist',
+		slow: true
+	},
 	{ role: 'owner', path: `${TRAIL}/mail`, name: 'mail-log' },
 	{ role: 'owner', path: `${TRAIL}/mail/preview`, name: 'mail-preview' },
 	{ role: 'manager', path: `${TRAIL}/mail`, name: 'manager-mail-log' },
@@ -114,7 +130,7 @@ async function checkA11y(page: Page, only?: string[]) {
 for (const p of pages) {
 	test(`${p.name} passes the accessibility check`, async ({ browser, baseURL }) => {
 		// Three loads, two axe runs and three full-page screenshots.
-		test.setTimeout(60_000);
+		test.setTimeout(p.slow ? 120_000 : 60_000);
 		const context = await browser.newContext({
 			baseURL,
 			storageState: p.role ? sessionFile(p.role) : undefined

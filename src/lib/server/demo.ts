@@ -15,6 +15,7 @@ import { regenerateShows } from './schedule/seasons';
 import { hashPassword } from './auth/password';
 import { seedDemoProps } from './demo-props';
 import { seedLanternWalk } from './demo-lantern-walk';
+import { seedDemoCalibration } from './demo-calibration';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
 export const DEMO_PASSWORD = 'lantern-demo-2026';
@@ -96,6 +97,7 @@ export async function seedDemo(db: Db) {
 		}
 		await seedDemoProps(db, venue.id, v.slug);
 		if (v.slug === 'hollow-pines-trail') await seedLanternWalk(db, venue.id);
+		await seedDemoCalibration(db, venue.id, v.slug);
 	}
 	await seedSchedule(db, ids);
 	return ids;

@@ -9,6 +9,8 @@ const client = createDb(
 );
 
 export const db = client.db;
+/** The postgres.js client itself, for LISTEN (live checklist progress). */
+export const pg = client.sql;
 
 export async function closeDb() {
 	await client.sql.end({ timeout: 5 });

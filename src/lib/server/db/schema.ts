@@ -5,3 +5,4 @@ export * from './mail.schema';
 export * from './props.schema';
 export * from './scenes.schema';
 export * from './runsheets.schema';
+export * from './checklists.schema';

@@ -7,7 +7,8 @@ export const ROUTE_ROLES: { prefix: string; roles: Role[] }[] = [
 	{ prefix: '/(app)/v/[venue]/settings', roles: ['owner'] },
 	{ prefix: '/(app)/v/[venue]/activity', roles: ['owner'] },
 	{ prefix: '/(app)/v/[venue]/mail/preview', roles: ['owner'] },
-	{ prefix: '/(app)/v/[venue]/mail', roles: ['owner', 'show_manager'] }
+	{ prefix: '/(app)/v/[venue]/mail', roles: ['owner', 'show_manager'] },
+	{ prefix: '/(app)/v/[venue]/safety', roles: ['owner', 'show_manager'] }
 ];
 
 export function rolesForRoute(routeId: string): Role[] | null {

@@ -285,3 +285,28 @@ export async function ingestPropFile(opts: {
 		await rm(spooled.dir, { recursive: true, force: true });
 	}
 }
+
+/**
+ * A photo taken during a pre-show check: stored under the show's prefix, and linked when the
+ * result that names it is recorded. Only PNG, JPEG or WebP up to the photo limit.
+ */
+export async function ingestCheckPhoto(opts: {
+	store: ObjectStore;
+	request: Request;
+	prefix: string;
+}): Promise<{ ok: true; key: string } | UploadRefusal> {
+	const early = tooLongByHeader(opts.request, IMAGE_MAX_BYTES);
+	if (early) return { ...early, message: `Photos may be at most ${mb(IMAGE_MAX_BYTES)}.` };
+	const spooled = await spool(opts.request.body, IMAGE_MAX_BYTES);
+	if (!('path' in spooled)) return spooled;
+	try {
+		const sniffed = await fileTypeFromBuffer(spooled.head);
+		if (!sniffed || !IMAGE_TYPES.includes(sniffed.mime))
+			return { ok: false, status: 415, message: 'Take or choose a photo (PNG, JPEG or WebP).' };
+		const key = `${opts.prefix}${randomUUID()}.${sniffed.ext}`;
+		await opts.store.putFile(key, spooled.path, sniffed.mime);
+		return { ok: true, key };
+	} finally {
+		await rm(spooled.dir, { recursive: true, force: true });
+	}
+}

@@ -9,6 +9,9 @@ import {
 	listPositions
 } from '$lib/server/schedule/shows';
 import { localTime } from '$lib/util/when';
+import { loadChecklist } from '$lib/server/checklists/state';
+import { syncChecklist } from '$lib/server/checklists/sync';
+import { progressByRoom, stateOf } from '$lib/checklists/view';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -29,7 +32,22 @@ export const load: PageServerLoad = async (event) => {
 		const crew = await showAssignments(db, venue.id, show.id);
 		const posts = await listPositions(db, venue.id);
 		const mine = crew.filter((a) => a.personId === event.locals.person!.id);
+		const canOpen = venue.role === 'owner' || venue.role === 'show_manager' || mine.length > 0;
+		let checklist = null;
+		if (canOpen && show.status === 'scheduled') {
+			await syncChecklist(db, venue.id, show.id, { onlyIfEmpty: true });
+			const state = await loadChecklist(db, venue, show.id);
+			const states = state.checks.map(stateOf);
+			checklist = {
+				total: states.length,
+				pass: states.filter((s) => s === 'pass').length,
+				fail: states.filter((s) => s === 'fail').length,
+				rooms: progressByRoom(state.checks),
+				signedBy: state.signOff?.personName ?? null
+			};
+		}
 		next = {
+			checklist,
 			id: show.id,
 			date: show.date,
 			status: show.status,
@@ -41,7 +59,8 @@ export const load: PageServerLoad = async (event) => {
 			positions: posts.length,
 			myCall: mine.length ? localTime(mine[0].callOverride ?? show.crewCall, venue.timeZone) : null,
 			problems: venue.role === 'crew' ? 0 : (await showConflicts(db, venue.id, show.id)).length,
-			canOpen: venue.role !== 'crew' || mine.length > 0
+			canOpen: venue.role !== 'crew' || mine.length > 0,
+			canCheck: canOpen
 		};
 	}
 	return { details, rooms: roomList, memberCount: members.n, next };

@@ -1,11 +1,29 @@
 import { error, fail } from '@sveltejs/kit';
-import { and, asc, eq } from 'drizzle-orm';
+import { and, asc, eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import { nextDate, wallToInstant } from '$lib/schedule';
 import { PLANNERS, requireRole } from '$lib/server/auth/guard';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db';
-import { assignments, memberships, seasons, shows, users } from '$lib/server/db/schema';
+import {
+	assignments,
+	memberships,
+	props,
+	rooms,
+	scenes,
+	seasons,
+	showSceneExclusions,
+	shows,
+	signOffs,
+	users
+} from '$lib/server/db/schema';
+import { notifyShow } from '$lib/server/checklists/live';
+import { signOff, standDown } from '$lib/server/checklists/signoff';
+import { loadChecklist } from '$lib/server/checklists/state';
+import { syncChecklist } from '$lib/server/checklists/sync';
+import { scenesForShow } from '$lib/server/scenes/for-show';
+import { sceneExclusionSchema, signOffSchema, standDownSchema } from '$lib/schemas/checklist';
+import { progressByRoom, signOffBlockers } from '$lib/checklists/view';
 import { keep, parseForm } from '$lib/server/forms';
 import { getShow, listPositions, showAssignments, showConflicts } from '$lib/server/schedule/shows';
 import { assignSchema, idSchema, showStatusSchema, showTimesSchema } from '$lib/schemas/schedule';
@@ -40,7 +58,52 @@ export const load: PageServerLoad = async (event) => {
 		.where(eq(memberships.venueId, venue.id))
 		.orderBy(asc(users.name));
 	const tz = venue.timeZone;
+	await syncChecklist(db, venue.id, show.id);
+	const [checklist, night, left, roomRows] = await Promise.all([
+		loadChecklist(db, venue, show.id),
+		scenesForShow(db, venue.id, show.id),
+		db
+			.select({
+				id: scenes.id,
+				name: scenes.name,
+				roomId: scenes.roomId,
+				reason: showSceneExclusions.reason
+			})
+			.from(showSceneExclusions)
+			.innerJoin(scenes, eq(scenes.id, showSceneExclusions.sceneId))
+			.where(
+				and(eq(showSceneExclusions.showId, show.id), eq(showSceneExclusions.venueId, venue.id))
+			)
+			.orderBy(asc(scenes.name)),
+		db.select({ id: rooms.id, name: rooms.name }).from(rooms).where(eq(rooms.venueId, venue.id))
+	]);
+	const roomName = (id: string | null) => roomRows.find((r) => r.id === id)?.name ?? null;
+	const nightPropIds = [...new Set(night.flatMap((s) => s.propIds))];
+	const nightProps = nightPropIds.length
+		? await db
+				.select({ id: props.id, name: props.name })
+				.from(props)
+				.where(and(eq(props.venueId, venue.id), inArray(props.id, nightPropIds)))
+				.orderBy(asc(props.name))
+		: [];
+	const down = new Set(checklist.standDowns.map((d) => d.propId));
+	const failing = new Set(
+		checklist.checks.filter((c) => c.latest?.outcome === 'fail' && c.propId).map((c) => c.propId)
+	);
 	return {
+		checklist,
+		progress: progressByRoom(checklist.checks),
+		blockers: signOffBlockers(checklist.checks),
+		scenes: night.map((s) => ({
+			id: s.id,
+			name: s.name,
+			room: roomName(s.roomId),
+			stoodDown: s.stoodDown
+		})),
+		leftOut: left.map((s) => ({ ...s, room: roomName(s.roomId) })),
+		standDownChoices: nightProps
+			.filter((p) => !down.has(p.id))
+			.map((p) => ({ ...p, failing: failing.has(p.id) })),
 		show: {
 			id: show.id,
 			date: show.date,
@@ -66,6 +129,14 @@ export const load: PageServerLoad = async (event) => {
 		runSheets: PLANNERS.includes(venue.role) ? await runSheetDelivery(db, venue.id, show.id) : null
 	};
 };
+
+async function isSigned(showId: string) {
+	const [row] = await db
+		.select({ id: signOffs.id })
+		.from(signOffs)
+		.where(eq(signOffs.showId, showId));
+	return Boolean(row);
+}
 
 async function markEdited(
 	showId: string,
@@ -226,5 +297,98 @@ export const actions: Actions = {
 		});
 		await noticeRunSheetChanges(db, venue.id, done[0].showId, event);
 		return { action: 'unassign', saved: true };
+	},
+	exclude: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const show = await findShow(venue.id, event.params.show);
+		if (!show) return fail(404, { action: 'exclude', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, sceneExclusionSchema);
+		if (!parsed.ok) return fail(400, { action: 'exclude', message: 'Pick a scene.' });
+		if (await isSigned(show.id))
+			return fail(409, {
+				action: 'exclude',
+				message: 'This night is signed off; its scenes are fixed.'
+			});
+		const [scene] = await db
+			.select({ id: scenes.id, name: scenes.name })
+			.from(scenes)
+			.where(and(eq(scenes.id, parsed.data.sceneId), eq(scenes.venueId, venue.id)));
+		if (!scene) return fail(404, { action: 'exclude', message: 'That scene no longer exists.' });
+		await db
+			.insert(showSceneExclusions)
+			.values({ showId: show.id, sceneId: scene.id, venueId: venue.id, reason: parsed.data.reason })
+			.onConflictDoNothing();
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'show.scene_left_out',
+			detail: { date: show.date, scene: scene.name }
+		});
+		await notifyShow(db, show.id);
+		return { action: 'exclude', saved: true };
+	},
+	include: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const show = await findShow(venue.id, event.params.show);
+		if (!show) return fail(404, { action: 'include', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, sceneExclusionSchema);
+		if (!parsed.ok) return fail(400, { action: 'include', message: 'Pick a scene.' });
+		if (await isSigned(show.id))
+			return fail(409, {
+				action: 'include',
+				message: 'This night is signed off; its scenes are fixed.'
+			});
+		const done = await db
+			.delete(showSceneExclusions)
+			.where(
+				and(
+					eq(showSceneExclusions.showId, show.id),
+					eq(showSceneExclusions.sceneId, parsed.data.sceneId),
+					eq(showSceneExclusions.venueId, venue.id)
+				)
+			)
+			.returning();
+		if (done.length)
+			await audit(db, {
+				venueId: venue.id,
+				personId: event.locals.person!.id,
+				action: 'show.scene_put_back',
+				detail: { date: show.date, scene: parsed.data.sceneId }
+			});
+		await notifyShow(db, show.id);
+		return { action: 'include', saved: true };
+	},
+	standDown: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const show = await findShow(venue.id, event.params.show);
+		if (!show) return fail(404, { action: 'standDown', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, standDownSchema);
+		if (!parsed.ok)
+			return fail(400, { action: 'standDown', values: keep(parsed.raw), errors: parsed.errors });
+		const done = await standDown(db, venue, show.id, event.locals.person!.id, parsed.data);
+		if (!done.ok)
+			return fail(400, {
+				action: 'standDown',
+				values: keep(parsed.raw),
+				errors: { propId: [done.message] }
+			});
+		return { action: 'standDown', saved: true };
+	},
+	signOff: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const show = await findShow(venue.id, event.params.show);
+		if (!show) return fail(404, { action: 'signOff', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, signOffSchema);
+		if (!parsed.ok)
+			return fail(400, { action: 'signOff', values: keep(parsed.raw), errors: parsed.errors });
+		const done = await signOff(db, venue, show.id, event.locals.person!.id, parsed.data.note);
+		if (!done.ok)
+			return fail(400, {
+				action: 'signOff',
+				values: keep(parsed.raw),
+				refused: done.message,
+				blockers: done.blockers
+			});
+		return { action: 'signOff', saved: true };
 	}
 };

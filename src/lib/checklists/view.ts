@@ -1,0 +1,112 @@
+import type { CheckExpected, CheckKind } from './generate';
+import type { Outcome } from './evaluate';
+
+export interface ResultView {
+	id: string;
+	checkId: string;
+	outcome: Outcome;
+	idleReading: number | null;
+	presentReading: number | null;
+	note: string | null;
+	photoUrl: string | null;
+	personName: string;
+	recordedAt: string;
+}
+
+export interface CheckView {
+	id: string;
+	key: string;
+	kind: CheckKind;
+	propId: string | null;
+	roomId: string | null;
+	roomName: string;
+	label: string;
+	detail: string;
+	required: boolean;
+	expected: CheckExpected;
+	latest: ResultView | null;
+	/** Its prop is stood down for the night: excused from sign-off. */
+	stoodDown: boolean;
+}
+
+export interface StandDownView {
+	propId: string;
+	propName: string;
+	reason: string;
+	personName: string;
+	at: string;
+}
+
+export interface SignOffView {
+	personName: string;
+	at: string;
+	note: string | null;
+}
+
+export interface ChecklistView {
+	showId: string;
+	checks: CheckView[];
+	/** Every result of the night, newest first. */
+	history: (ResultView & { label: string })[];
+	standDowns: StandDownView[];
+	signOff: SignOffView | null;
+}
+
+export type CheckState = 'pass' | 'fail' | 'open' | 'stood_down';
+
+export const NO_ROOM = 'Whole venue';
+
+export function stateOf(check: Pick<CheckView, 'latest' | 'stoodDown'>): CheckState {
+	if (check.latest?.outcome === 'pass') return 'pass';
+	if (check.stoodDown) return 'stood_down';
+	return check.latest ? 'fail' : 'open';
+}
+
+export interface RoomProgress {
+	roomId: string | null;
+	roomName: string;
+	total: number;
+	pass: number;
+	fail: number;
+	open: number;
+	stood_down: number;
+}
+
+/** Counts per room, rooms in checklist order. */
+export function progressByRoom(checks: CheckView[]): RoomProgress[] {
+	const rooms = new Map<string, RoomProgress>();
+	for (const c of checks) {
+		const k = c.roomId ?? '';
+		let r = rooms.get(k);
+		if (!r) {
+			r = {
+				roomId: c.roomId,
+				roomName: c.roomName,
+				total: 0,
+				pass: 0,
+				fail: 0,
+				open: 0,
+				stood_down: 0
+			};
+			rooms.set(k, r);
+		}
+		r.total++;
+		r[stateOf(c)]++;
+	}
+	return [...rooms.values()];
+}
+
+/**
+ * What stands between the night and its sign-off: every required check must have passed, or
+ * belong to a prop stood down for the night. Empty when the show manager may sign.
+ */
+export function signOffBlockers(checks: CheckView[]): string[] {
+	const out: string[] = [];
+	for (const c of checks) {
+		if (!c.required) continue;
+		const s = stateOf(c);
+		if (s === 'fail') out.push(`Failed: ${c.label}`);
+		else if (s === 'open') out.push(`Not recorded: ${c.label}`);
+	}
+	return out.sort((a, b) => (a.startsWith('Failed') ? 0 : 1) - (b.startsWith('Failed') ? 0 : 1));
+}

@@ -1,0 +1,68 @@
+import { z } from 'zod';
+
+const reading = z
+	.union([z.number(), z.string().trim(), z.null()])
+	.optional()
+	.transform((v, ctx) => {
+		if (v === undefined || v === null || v === '') return null;
+		const n = typeof v === 'number' ? v : Number(v.replace(',', '.'));
+		if (!Number.isFinite(n)) {
+			ctx.addIssue({ code: 'custom', message: 'Type the reading as a number, like 502.' });
+			return z.NEVER;
+		}
+		return n;
+	});
+
+/** One result sent by a phone; the same schema checks the JSON API. */
+export const resultSchema = z.object({
+	clientId: z.uuid({ error: 'Each result needs its own id from the phone.' }),
+	checkId: z.uuid({ error: 'Pick a check.' }),
+	outcome: z.enum(['pass', 'fail'], { error: 'Choose pass or fail.' }).optional(),
+	idleReading: reading,
+	presentReading: reading,
+	note: z
+		.string()
+		.trim()
+		.max(2000, 'Keep the note under 2,000 characters.')
+		.optional()
+		.nullable()
+		.transform((v) => v || null),
+	photoKey: z.string().max(300).optional().nullable()
+});
+export type ResultInput = z.input<typeof resultSchema>;
+
+export const standDownSchema = z.object({
+	propId: z.uuid({ error: 'Pick the prop to stand down.' }),
+	reason: z
+		.string({ error: 'Say why the prop is stood down.' })
+		.trim()
+		.min(3, 'Say why the prop is stood down.')
+		.max(500, 'Keep the reason under 500 characters.')
+});
+
+export const signOffSchema = z.object({
+	note: z
+		.string()
+		.trim()
+		.max(1000, 'Keep the note under 1,000 characters.')
+		.optional()
+		.transform((v) => v || null)
+});
+
+export const safetyItemSchema = z.object({
+	label: z
+		.string({ error: 'Name the item.' })
+		.trim()
+		.min(3, 'Name the item, like "Exits lit and clear".')
+		.max(200, 'Keep it under 200 characters.')
+});
+
+export const sceneExclusionSchema = z.object({
+	sceneId: z.uuid({ error: 'Pick a scene.' }),
+	reason: z
+		.string()
+		.trim()
+		.max(300, 'Keep the reason under 300 characters.')
+		.optional()
+		.transform((v) => v || null)
+});

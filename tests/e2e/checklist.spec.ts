@@ -1,0 +1,104 @@
+import { expect, test, type Locator, type Page } from '@playwright/test';
+import { TRAIL, people, signIn } from './support';
+
+const PLATE = 'Hand in the well: Well-lip plate sensor test';
+
+function check(page: Page, label: string): Locator {
+	return page
+		.getByTestId('check')
+		.filter({ has: page.getByRole('heading', { name: label, exact: true }) });
+}
+
+async function readings(page: Page, idle: string, present: string) {
+	const card = check(page, PLATE);
+	await card.getByLabel('Idle reading').fill(idle);
+	await card.getByLabel('Present reading').fill(present);
+	await card.getByRole('button', { name: 'Record readings' }).click();
+	return card;
+}
+
+test('crew checking off pre-show sensor tests: readings on a phone, live progress, sign-off after a stand-down', async ({
+	browser,
+	baseURL
+}) => {
+	// One long journey on two phones, about a dozen recorded checks.
+	test.setTimeout(120_000);
+	const phone = { viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true };
+	const crewContext = await browser.newContext({ baseURL, ...phone });
+	const crew = await crewContext.newPage();
+	await signIn(crew, people.crew);
+	await crew.goto(`${TRAIL}/my-nights`);
+	await crew.getByRole('link', { name: 'Checklist for Fri 1 Oct 2027' }).click();
+	await expect(crew.getByRole('heading', { level: 1, name: 'Pre-show checklist' })).toBeVisible();
+	const showPath = new URL(crew.url()).pathname.replace(/\/checklist$/, '');
+
+	// The show manager watches the show page on another phone.
+	const managerContext = await browser.newContext({ baseURL, ...phone });
+	const manager = await managerContext.newPage();
+	await signIn(manager, people.manager);
+	await manager.goto(showPath);
+	await expect(manager.getByTestId('checklist-summary')).toContainText('0 of');
+
+	// The expected band sits beside the readings: an in-band idle and a present past enter pass.
+	const plate = check(crew, PLATE);
+	await expect(plate.getByText('Expected: idle 1472.5 to 1487.5')).toBeVisible();
+	await readings(crew, '1480', '1552');
+	await expect(plate.getByText('✓ Passed')).toBeVisible();
+	await expect(manager.getByTestId('history')).toContainText(`pass · ${PLATE}`);
+
+	// Re-tested later: the idle reading has drifted out of the band, so it fails; the page updates live.
+	await readings(crew, '1493', '1552');
+	await expect(plate.getByText('✗ Failed')).toBeVisible();
+	await expect(manager.getByTestId('failures')).toContainText(PLATE);
+	await expect(manager.getByTestId('history')).toContainText(`fail · ${PLATE}`);
+
+	// Offline in a dark room: the result waits on the phone and is sent once, when signal returns.
+	await crewContext.setOffline(true);
+	await crew.getByRole('button', { name: 'Pass: Exits lit and clear' }).click();
+	await expect(crew.getByText('Waiting to send (1)')).toBeVisible();
+	await crew.reload().catch(() => {});
+	await crewContext.setOffline(false);
+	await crew.goto(`${showPath}/checklist`);
+	await expect(crew.getByText(/Waiting to send/)).toHaveCount(0);
+	await expect(check(crew, 'Exits lit and clear').getByText('✓ Passed')).toBeVisible();
+	await expect(manager.getByTestId('history').getByText(/Exits lit and clear/)).toHaveCount(1);
+
+	// Everything else passes.
+	const passes = crew.getByRole('button', { name: /^Pass: / });
+	const count = await passes.count();
+	for (let i = 0; i < count; i++) {
+		const name = (await passes.nth(i).getAttribute('aria-label'))!;
+		if (name === 'Pass: Exits lit and clear') continue;
+		await passes.nth(i).click();
+		await expect(check(crew, name.slice('Pass: '.length)).getByText('✓ Passed')).toBeVisible();
+	}
+
+	// Sign-off is refused while the plate fails, and says why.
+	await manager.getByRole('button', { name: 'Sign off the night' }).click();
+	const refusal = manager.getByRole('alert');
+	await expect(refusal).toContainText('Not yet');
+	await expect(refusal).toContainText(`Failed: ${PLATE}`);
+
+	// The prop is stood down with a reason; its scene holds its safe state; then the night is signed.
+	await manager
+		.getByLabel('Prop', { exact: true })
+		.selectOption({ label: 'Hand in the well (failing)' });
+	await manager
+		.getByLabel('Reason')
+		.fill('Plate reads high after the rain; lanterns held at full.');
+	await manager.getByRole('button', { name: 'Stand down for tonight' }).click();
+	await expect(manager.getByRole('heading', { name: 'Stood down tonight' })).toBeVisible();
+	await expect(
+		manager.getByText('A prop is stood down: the scene holds its safe state tonight.')
+	).toBeVisible();
+	await manager.getByRole('button', { name: 'Sign off the night' }).click();
+	await expect(manager.getByText('✓ Signed off by Maren Quill')).toBeVisible();
+
+	// The crew's page closes the checklist.
+	await crew.reload();
+	await expect(crew.getByText(/Signed off by Maren Quill/)).toBeVisible();
+	await expect(crew.getByRole('button', { name: /^Pass: / })).toHaveCount(0);
+
+	await crewContext.close();
+	await managerContext.close();
+});

@@ -1,0 +1,466 @@
+import { describe, expect, inject, it } from 'vitest';
+import { randomUUID } from 'node:crypto';
+import { and, eq, sql } from 'drizzle-orm';
+import {
+	assignments,
+	checkResults,
+	checks,
+	outputs,
+	positions,
+	props,
+	rooms,
+	sceneCues,
+	sceneResponses,
+	scenes,
+	sensors,
+	showSceneExclusions,
+	shows,
+	signOffs,
+	venues
+} from '../../src/lib/server/db/schema';
+import { createDb } from '../../src/lib/server/db/client';
+import { syncChecklist } from '../../src/lib/server/checklists/sync';
+import { loadChecklist } from '../../src/lib/server/checklists/state';
+import { recordResult } from '../../src/lib/server/checklists/record';
+import { signOff, standDown } from '../../src/lib/server/checklists/signoff';
+import { createLiveHub, notifyShow, showEventStream } from '../../src/lib/server/checklists/live';
+import type { Role } from '../../src/lib/roles';
+import { makePerson, makeVenue, testDb } from './db';
+
+const db = testDb();
+
+const band = {
+	direction: 'up' as const,
+	enter: 1495,
+	exit: 1487.5,
+	baselineLow: 1472.5,
+	baselineHigh: 1487.5
+};
+
+async function night() {
+	const manager = await makePerson(db, 'Ada Manager');
+	const crewHere = await makePerson(db, 'Bo Crew');
+	const crewOther = await makePerson(db, 'Cy Crew');
+	const { venue } = await makeVenue(db, [
+		[manager.id, 'show_manager'],
+		[crewHere.id, 'crew'],
+		[crewOther.id, 'crew']
+	]);
+	const [room] = await db
+		.insert(rooms)
+		.values({ venueId: venue.id, name: 'Well room', position: 1 })
+		.returning();
+	const [barn] = await db
+		.insert(rooms)
+		.values({ venueId: venue.id, name: 'Barn', position: 2 })
+		.returning();
+	const [well] = await db
+		.insert(props)
+		.values({ venueId: venue.id, name: 'Well', roomId: room.id, status: 'show_ready' })
+		.returning();
+	const [plate] = await db
+		.insert(sensors)
+		.values({
+			venueId: venue.id,
+			propId: well.id,
+			kind: 'capacitive',
+			name: 'Plate',
+			settings: {
+				kind: 'capacitive',
+				resistanceOhm: 1e6,
+				plateAreaCm2: 100,
+				gapMm: 10,
+				strayPf: 10,
+				samplesAveraged: 4,
+				readingNoiseCounts: 2,
+				handFraction: 0.5
+			},
+			calibration: { ...band, captureId: null, appliedAt: new Date().toISOString() }
+		})
+		.returning();
+	const [glow] = await db
+		.insert(outputs)
+		.values({
+			venueId: venue.id,
+			propId: well.id,
+			kind: 'led_string',
+			name: 'Glow',
+			settings: {
+				kind: 'led_string',
+				colour: 'white',
+				forwardV: 3.2,
+				ledsInSeries: 3,
+				strings: 1,
+				currentMa: 20,
+				supplyV: 12,
+				switchDropV: 0.1,
+				logicHighV: 5,
+				gateThresholdMaxV: 2.5,
+				continuousDrainMa: 200
+			},
+			safeState: 'full'
+		})
+		.returning();
+	const [drop] = await db
+		.insert(props)
+		.values({ venueId: venue.id, name: 'Drop', roomId: barn.id, status: 'show_ready' })
+		.returning();
+	const [valve] = await db
+		.insert(outputs)
+		.values({
+			venueId: venue.id,
+			propId: drop.id,
+			kind: 'relay',
+			relayKind: 'pneumatic',
+			name: 'Valve',
+			settings: {
+				kind: 'relay',
+				relayKind: 'pneumatic',
+				coilV: 5,
+				coilOhm: 70,
+				loadSupply: 'dc',
+				loadV: 12,
+				loadCurrentA: 0.4,
+				contactRatingA: 10,
+				contactRatingV: 30,
+				onMs: 250,
+				minOnMs: 50,
+				offMs: 1500,
+				minOffMs: 200
+			},
+			safeState: 'de_energised'
+		})
+		.returning();
+	const [glowScene] = await db
+		.insert(scenes)
+		.values({
+			venueId: venue.id,
+			roomId: room.id,
+			name: 'Glow',
+			trigger: 'sensor',
+			triggerSensorId: plate.id,
+			lengthMs: 5000
+		})
+		.returning();
+	await db
+		.insert(sceneResponses)
+		.values({ venueId: venue.id, sceneId: glowScene.id, sensorId: plate.id, outputId: glow.id });
+	const when = (d: string) => ({
+		venueId: venue.id,
+		date: d,
+		doorsOpen: new Date(`${d}T18:00:00Z`),
+		doorsClose: new Date(`${d}T22:00:00Z`),
+		crewCall: new Date(`${d}T16:00:00Z`)
+	});
+	const [show] = await db.insert(shows).values(when('2027-10-01')).returning();
+	const [other] = await db.insert(shows).values(when('2027-10-02')).returning();
+	const [post] = await db
+		.insert(positions)
+		.values({ venueId: venue.id, name: 'Room tech' })
+		.returning();
+	await db.insert(assignments).values([
+		{ venueId: venue.id, showId: show.id, positionId: post.id, personId: crewHere.id },
+		{ venueId: venue.id, showId: other.id, positionId: post.id, personId: crewOther.id }
+	]);
+	const ctx = (role: Role) => ({ id: venue.id, slug: venue.slug, role });
+	return {
+		venue,
+		ctx,
+		manager,
+		crewHere,
+		crewOther,
+		show,
+		other,
+		well,
+		drop,
+		plate,
+		valve,
+		room,
+		barn
+	};
+}
+
+const keysOf = async (venue: { id: string; slug: string }, showId: string) =>
+	(await loadChecklist(db, venue, showId)).checks.map((c) => c.key);
+
+describe('generating a show checklist', () => {
+	it('makes checks from the night scenes and keeps results through a scene change', async () => {
+		const n = await night();
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const keys = await keysOf(n.ctx('show_manager'), n.show.id);
+		expect(keys).toContain(`sensor:${n.plate.id}`);
+		expect(keys).not.toContain(`output:${n.valve.id}`);
+		expect(keys.filter((k) => k.startsWith('venue:'))).toHaveLength(5);
+
+		const plateCheck = (await loadChecklist(db, n.ctx('crew'), n.show.id)).checks.find(
+			(c) => c.key === `sensor:${n.plate.id}`
+		)!;
+		const first = await recordResult(db, {
+			venue: n.ctx('crew'),
+			personId: n.crewHere.id,
+			showId: n.show.id,
+			body: {
+				clientId: randomUUID(),
+				checkId: plateCheck.id,
+				idleReading: 1480,
+				presentReading: 1550
+			}
+		});
+		expect(first.ok && first.result.outcome).toBe('pass');
+
+		// A designer adds a timed scene with the pneumatic drop: its checks appear, the result stays.
+		const [hiss] = await db
+			.insert(scenes)
+			.values({
+				venueId: n.venue.id,
+				roomId: n.barn.id,
+				name: 'Hiss',
+				trigger: 'timer',
+				loopMs: 60000,
+				lengthMs: 3000
+			})
+			.returning();
+		await db.insert(sceneCues).values({
+			venueId: n.venue.id,
+			sceneId: hiss.id,
+			outputId: n.valve.id,
+			startMs: 0,
+			action: { type: 'pulse', durationMs: 200 }
+		});
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const after = await loadChecklist(db, n.ctx('crew'), n.show.id);
+		expect(after.checks.map((c) => c.key)).toEqual(
+			expect.arrayContaining([
+				`output:${n.valve.id}`,
+				`safety:pinch-guards:${n.drop.id}`,
+				`safety:air-bled:${n.drop.id}`
+			])
+		);
+		expect(after.checks.find((c) => c.id === plateCheck.id)!.latest!.outcome).toBe('pass');
+
+		// Leaving the scene out of this show removes its checks from the list but deletes nothing.
+		await db
+			.insert(showSceneExclusions)
+			.values({ showId: n.show.id, sceneId: hiss.id, venueId: n.venue.id });
+		await syncChecklist(db, n.venue.id, n.show.id);
+		expect(await keysOf(n.ctx('crew'), n.show.id)).not.toContain(`output:${n.valve.id}`);
+		const [kept] = await db
+			.select()
+			.from(checks)
+			.where(and(eq(checks.showId, n.show.id), eq(checks.key, `output:${n.valve.id}`)));
+		expect(kept.removedAt).not.toBeNull();
+	});
+
+	it('judges sensor tests from the readings, not from what the phone says', async () => {
+		const n = await night();
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const state = await loadChecklist(db, n.ctx('crew'), n.show.id);
+		const plate = state.checks.find((c) => c.kind === 'sensor_test')!;
+		// idle 1490 is above the band 1472.5..1487.5
+		const done = await recordResult(db, {
+			venue: n.ctx('crew'),
+			personId: n.crewHere.id,
+			showId: n.show.id,
+			body: {
+				clientId: randomUUID(),
+				checkId: plate.id,
+				outcome: 'pass',
+				idleReading: 1490,
+				presentReading: 1550
+			}
+		});
+		expect(done.ok && done.result.outcome).toBe('fail');
+		const missing = await recordResult(db, {
+			venue: n.ctx('crew'),
+			personId: n.crewHere.id,
+			showId: n.show.id,
+			body: { clientId: randomUUID(), checkId: plate.id, idleReading: 'lots' }
+		});
+		expect(missing).toMatchObject({ ok: false, status: 400 });
+	});
+});
+
+describe('who may record', () => {
+	it('lets crew record only on the shows they are assigned to, and not in other venues', async () => {
+		const n = await night();
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const check = (await loadChecklist(db, n.ctx('crew'), n.show.id)).checks[0];
+		const body = () => ({ clientId: randomUUID(), checkId: check.id, outcome: 'pass' });
+
+		const mine = await recordResult(db, {
+			venue: n.ctx('crew'),
+			personId: n.crewHere.id,
+			showId: n.show.id,
+			body: body()
+		});
+		expect(mine.ok).toBe(true);
+		const notMine = await recordResult(db, {
+			venue: n.ctx('crew'),
+			personId: n.crewOther.id,
+			showId: n.show.id,
+			body: body()
+		});
+		expect(notMine).toMatchObject({ ok: false, status: 403 });
+		const manager = await recordResult(db, {
+			venue: n.ctx('show_manager'),
+			personId: n.manager.id,
+			showId: n.show.id,
+			body: body()
+		});
+		expect(manager.ok).toBe(true);
+
+		// Crew of another venue, even an owner there, cannot reach this show.
+		const stranger = await makePerson(db, 'Dee Elsewhere');
+		const elsewhere = await makeVenue(db, [[stranger.id, 'owner']]);
+		const foreign = await recordResult(db, {
+			venue: { id: elsewhere.venue.id, role: 'owner' },
+			personId: stranger.id,
+			showId: n.show.id,
+			body: body()
+		});
+		expect(foreign).toMatchObject({ ok: false, status: 404 });
+
+		// A check of another show cannot be recorded through this one.
+		await syncChecklist(db, n.venue.id, n.other.id);
+		const otherCheck = (await loadChecklist(db, n.ctx('crew'), n.other.id)).checks[0];
+		const crossed = await recordResult(db, {
+			venue: n.ctx('crew'),
+			personId: n.crewHere.id,
+			showId: n.show.id,
+			body: { clientId: randomUUID(), checkId: otherCheck.id, outcome: 'pass' }
+		});
+		expect(crossed).toMatchObject({ ok: false, status: 404 });
+		const count = await db.select().from(checkResults).where(eq(checkResults.showId, n.show.id));
+		expect(count).toHaveLength(2);
+	});
+});
+
+describe('check history', () => {
+	it('stores a replayed result once, even when both copies arrive together', async () => {
+		const n = await night();
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const check = (await loadChecklist(db, n.ctx('crew'), n.show.id)).checks[0];
+		const body = {
+			clientId: randomUUID(),
+			checkId: check.id,
+			outcome: 'fail',
+			note: 'Exit sign dark'
+		};
+		const args = { venue: n.ctx('crew'), personId: n.crewHere.id, showId: n.show.id, body };
+		const [a, b] = await Promise.all([recordResult(db, args), recordResult(db, args)]);
+		const again = await recordResult(db, args);
+		expect([a.ok, b.ok, again.ok]).toEqual([true, true, true]);
+		expect(again.ok && again.replay).toBe(true);
+		const rows = await db
+			.select()
+			.from(checkResults)
+			.where(eq(checkResults.clientId, body.clientId));
+		expect(rows).toHaveLength(1);
+	});
+
+	it('refuses to change or delete a result: a correction is a new entry', async () => {
+		const n = await night();
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const check = (await loadChecklist(db, n.ctx('crew'), n.show.id)).checks[0];
+		const args = (outcome: string) => ({
+			venue: n.ctx('crew'),
+			personId: n.crewHere.id,
+			showId: n.show.id,
+			body: { clientId: randomUUID(), checkId: check.id, outcome }
+		});
+		const first = await recordResult(db, args('fail'));
+		const id = first.ok ? first.result.id : '';
+		await expect(
+			db.update(checkResults).set({ outcome: 'pass' }).where(eq(checkResults.id, id))
+		).rejects.toThrow();
+		await expect(db.delete(checkResults).where(eq(checkResults.id, id))).rejects.toThrow();
+		await recordResult(db, args('pass'));
+		const state = await loadChecklist(db, n.ctx('crew'), n.show.id);
+		expect(state.checks[0].latest!.outcome).toBe('pass');
+		expect(state.history.filter((h) => h.checkId === check.id).map((h) => h.outcome)).toEqual([
+			'pass',
+			'fail'
+		]);
+		// Removing the whole show still takes its history with it.
+		await db.delete(shows).where(eq(shows.id, n.show.id));
+		expect(await db.select().from(checkResults).where(eq(checkResults.id, id))).toHaveLength(0);
+	});
+});
+
+describe('sign-off', () => {
+	it('is refused while a required check fails, allowed once its prop is stood down, and permanent', async () => {
+		const n = await night();
+		const venue = n.ctx('show_manager');
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const state = await loadChecklist(db, venue, n.show.id);
+		for (const c of state.checks) {
+			await recordResult(db, {
+				venue,
+				personId: n.manager.id,
+				showId: n.show.id,
+				body:
+					c.expected.mode === 'reading'
+						? { clientId: randomUUID(), checkId: c.id, idleReading: 1480, presentReading: 1400 }
+						: { clientId: randomUUID(), checkId: c.id, outcome: 'pass' }
+			});
+		}
+		const refused = await signOff(db, venue, n.show.id, n.manager.id, null);
+		expect(refused.ok).toBe(false);
+		expect(!refused.ok && refused.blockers).toEqual([
+			expect.stringContaining('Failed: Well: Plate sensor test')
+		]);
+
+		expect(
+			await standDown(db, venue, n.show.id, n.manager.id, { propId: n.drop.id, reason: 'x' })
+		).toMatchObject({ ok: false });
+		expect(
+			await standDown(db, venue, n.show.id, n.manager.id, {
+				propId: n.well.id,
+				reason: 'Plate reads high after rain'
+			})
+		).toEqual({ ok: true });
+		expect(await signOff(db, venue, n.show.id, n.manager.id, 'Well dark tonight')).toEqual({
+			ok: true
+		});
+		expect(await signOff(db, venue, n.show.id, n.manager.id, null)).toMatchObject({ ok: false });
+		await expect(
+			db.update(signOffs).set({ note: 'changed' }).where(eq(signOffs.showId, n.show.id))
+		).rejects.toThrow();
+
+		const after = await loadChecklist(db, venue, n.show.id);
+		expect(after.signOff?.personName).toBe('Ada Manager');
+		expect(after.standDowns.map((d) => d.reason)).toEqual(['Plate reads high after rain']);
+		// The signed night is closed to new results.
+		const late = await recordResult(db, {
+			venue,
+			personId: n.manager.id,
+			showId: n.show.id,
+			body: { clientId: randomUUID(), checkId: state.checks[0].id, outcome: 'pass' }
+		});
+		expect(late).toMatchObject({ ok: false, status: 409 });
+		// Deleting the venue still cascades through the append-only tables.
+		await db.delete(venues).where(eq(venues.id, n.venue.id));
+		expect(await db.select().from(signOffs).where(eq(signOffs.showId, n.show.id))).toHaveLength(0);
+	});
+});
+
+describe('live progress', () => {
+	it('streams a change to the browsers watching a show and lets go when they leave', async () => {
+		const listener = createDb(inject('databaseUrl'), { max: 2 });
+		try {
+			const hub = createLiveHub(listener.sql);
+			const showId = randomUUID();
+			const reader = showEventStream(hub, showId).getReader();
+			const dec = new TextDecoder();
+			expect(dec.decode((await reader.read()).value)).toContain('retry: 3000');
+			expect(hub.watching(showId)).toBe(1);
+			await notifyShow(db, randomUUID());
+			await notifyShow(db, showId);
+			expect(dec.decode((await reader.read()).value)).toMatch(/^event: changed\n/);
+			await reader.cancel();
+			expect(hub.watching(showId)).toBe(0);
+		} finally {
+			await listener.sql.end();
+		}
+	});
+});
