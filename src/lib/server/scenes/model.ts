@@ -45,6 +45,9 @@ export function toSceneModel(scene: SceneRow, cues: CueRow[], responses: Respons
 			id: r.id,
 			sensorId: r.sensorId,
 			outputId: r.outputId,
+			shape: r.shape,
+			threshold: r.threshold,
+			points: r.points,
 			minLevel: r.minLevel,
 			maxLevel: r.maxLevel
 		}))
