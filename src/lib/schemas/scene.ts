@@ -9,8 +9,12 @@ const optId = (message: string) =>
 		.transform((v) => v ?? null);
 
 const HOUR_MS = 3_600_000;
+// A checkbox after a hidden 'false' field sends both values; the last one counts.
 const bool = z.preprocess(
-	(v) => v === true || v === 'on' || v === 'true',
+	(v) => {
+		const last = Array.isArray(v) ? v.at(-1) : v;
+		return last === true || last === 'on' || last === 'true';
+	},
 	z.boolean()
 ) as unknown as z.ZodType<boolean, unknown>;
 

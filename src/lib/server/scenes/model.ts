@@ -40,7 +40,12 @@ export function toSceneModel(scene: SceneRow, cues: CueRow[], responses: Respons
 	return {
 		lengthMs: scene.lengthMs,
 		rearmMs: scene.rearmMs,
-		cues: cues.map((c) => ({ id: c.id, outputId: c.outputId, startMs: c.startMs, action: c.action })),
+		cues: cues.map((c) => ({
+			id: c.id,
+			outputId: c.outputId,
+			startMs: c.startMs,
+			action: c.action
+		})),
 		responses: responses.map((r) => ({
 			id: r.id,
 			sensorId: r.sensorId,
@@ -73,7 +78,11 @@ export interface LoadedScene {
 }
 
 /** One scene with its cues, responses and the outputs they use, or null when it is not in the venue. */
-export async function loadScene(db: Db, venueId: string, sceneId: string): Promise<LoadedScene | null> {
+export async function loadScene(
+	db: Db,
+	venueId: string,
+	sceneId: string
+): Promise<LoadedScene | null> {
 	const [row] = await db
 		.select()
 		.from(scenes)
