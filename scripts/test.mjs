@@ -71,7 +71,11 @@ step('prepare browser-test database', ['--import', 'tsx', 'scripts/migrate.ts'],
 	DATABASE_URL: e2eUrl
 });
 step('load demo data', ['--import', 'tsx', 'scripts/seed.ts'], { DATABASE_URL: e2eUrl });
-step('browser tests', ['node_modules/@playwright/test/cli.js', 'test', ...rest], {
+// Given journey spec files, run just those, not the page checks the journeys otherwise wait for
+// (the page checks keep their own sign-in step).
+const onlyJourneys = rest.some((a) => a.endsWith('.ts')) && !rest.some((a) => a.includes('pages'));
+const e2eArgs = onlyJourneys ? ['--no-deps', ...rest] : rest;
+step('browser tests', ['node_modules/@playwright/test/cli.js', 'test', ...e2eArgs], {
 	E2E_DATABASE_URL: e2eUrl
 });
 

@@ -14,6 +14,7 @@ import {
 import { regenerateShows } from './schedule/seasons';
 import { hashPassword } from './auth/password';
 import { seedDemoProps } from './demo-props';
+import { seedDemoScenes } from './demo-scenes';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
 export const DEMO_PASSWORD = 'lantern-demo-2026';
@@ -94,6 +95,7 @@ export async function seedDemo(db: Db) {
 				await db.insert(memberships).values({ venueId: venue.id, personId: ids[key], role });
 		}
 		await seedDemoProps(db, venue.id, v.slug);
+		await seedDemoScenes(db, venue.id, v.slug, ids.designer);
 	}
 	await seedSchedule(db, ids);
 	return ids;
