@@ -66,4 +66,28 @@ describe('analyseScene', () => {
 		expect(analyseScene(strobe(4), outputs).needsStrobeSignage).toBe(true);
 		expect(analyseScene(strobe(3), outputs).needsStrobeSignage).toBe(false);
 	});
+
+	it('gives each relay its share of the cycle beside its duty rating', () => {
+		// on time / (timeline + re-arm): 3 s of 10 s + 5 s = 20 % (our definition, checks.ts)
+		const fog: Scene = {
+			lengthMs: 10_000,
+			rearmMs: 5_000,
+			cues: [{ id: 'f', outputId: 'fog', startMs: 0, action: { type: 'pulse', durationMs: 3000 } }]
+		};
+		const relay = {
+			id: 'fog',
+			name: 'Fog',
+			kind: 'relay' as const,
+			currentAtFull: 0.07,
+			safeState: 'off',
+			maxDutyPercent: 15
+		};
+		const result = analyseScene(fog, [relay]);
+		expect(result.relayDuty).toEqual([
+			{ outputId: 'fog', name: 'Fog', percent: 20, ratingPercent: 15 }
+		]);
+		expect(result.findings.some((f) => f.code === 'relay-duty' && f.severity === 'error')).toBe(
+			true
+		);
+	});
 });

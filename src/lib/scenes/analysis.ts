@@ -1,5 +1,13 @@
 import { applyCurve } from '../curves/curve';
-import { checkScene, cycleMs, needsStrobeSignage, peakCurrent, throughputPerHour } from './checks';
+import {
+	checkScene,
+	cycleMs,
+	needsStrobeSignage,
+	peakCurrent,
+	relayOnPeriods,
+	throughputPerHour
+} from './checks';
+import { timelineEndMs, timelinePoints } from './timeline';
 import type { PreviewOutput } from './preview';
 import type { Finding, Scene } from './types';
 
@@ -30,6 +38,8 @@ export interface SceneAnalysis {
 	cycleMs: number;
 	/** Guests per hour the venue's dispatch allows with this scene's cycle, when known. */
 	throughputPerHour: number | null;
+	/** Share of each cycle (timeline plus re-arm) each relay is on, beside its duty rating. */
+	relayDuty: { outputId: string; name: string; percent: number; ratingPercent: number | null }[];
 	/** Peak current per supply, and over every output. */
 	peaks: {
 		supplyId: string | null;
@@ -93,6 +103,22 @@ export function analyseScene(
 			ratingA: null
 		});
 	}
+	const relayDuty: SceneAnalysis['relayDuty'] = [];
+	if (!invalid) {
+		const endMs = timelineEndMs(scene);
+		for (const o of outputs.filter((x) => x.kind === 'relay')) {
+			const on = relayOnPeriods(timelinePoints(scene, o.id, { kind: 'relay', endMs })).reduce(
+				(sum, p) => sum + p.endMs - p.startMs,
+				0
+			);
+			relayDuty.push({
+				outputId: o.id,
+				name: o.name,
+				percent: (100 * on) / (endMs + scene.rearmMs),
+				ratingPercent: o.maxDutyPercent ?? null
+			});
+		}
+	}
 	const order = { error: 0, warning: 1, info: 2 };
 	findings.sort((a, b) => order[a.severity] - order[b.severity]);
 	const cycle = cycleMs(scene);
@@ -109,6 +135,7 @@ export function analyseScene(
 			!invalid && group && group > 0 && dispatch && dispatch > 0
 				? Math.floor(throughputPerHour(group, dispatch, cycle / 1000))
 				: null,
-		peaks
+		peaks,
+		relayDuty
 	};
 }

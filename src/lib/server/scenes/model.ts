@@ -31,7 +31,8 @@ export function toOutputModel(row: OutputRow): Output {
 		currentAtFull: s.coilV / s.coilOhm,
 		safeState: row.safeState,
 		minOnMs: s.minOnMs ?? undefined,
-		minOffMs: s.minOffMs ?? undefined
+		minOffMs: s.minOffMs ?? undefined,
+		maxDutyPercent: s.maxDutyPercent ?? undefined
 	};
 }
 
