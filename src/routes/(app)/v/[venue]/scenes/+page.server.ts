@@ -14,6 +14,12 @@ export const load: PageServerLoad = async (event) => {
 };
 
 export const actions: Actions = {
-	duplicate: (event) => duplicateAction(event),
-	brighten: (event) => brightenAction(event)
+	duplicate: (event) => {
+		requireRole(event, ...EDITORS);
+		return duplicateAction(event);
+	},
+	brighten: (event) => {
+		requireRole(event, ...EDITORS);
+		return brightenAction(event);
+	}
 };

@@ -89,7 +89,10 @@ export const actions: Actions = {
 			});
 		}
 	},
-	duplicate: (event) => duplicateAction(event),
+	duplicate: (event) => {
+		requireRole(event, ...EDITORS);
+		return duplicateAction(event);
+	},
 	remove: async (event) => {
 		const venue = requireRole(event, ...EDITORS);
 		const loaded = await sceneOf(event, venue.id);
