@@ -1,5 +1,15 @@
 CREATE TYPE "public"."check_kind" AS ENUM('sensor_test', 'output_test', 'safety');--> statement-breakpoint
 CREATE TYPE "public"."check_outcome" AS ENUM('pass', 'fail');--> statement-breakpoint
+CREATE TABLE "scene_changes" (
+	"id" uuid PRIMARY KEY DEFAULT gen_random_uuid() NOT NULL,
+	"venue_id" uuid NOT NULL,
+	"scene_id" uuid NOT NULL,
+	"person_id" text,
+	"at" timestamp with time zone DEFAULT now() NOT NULL,
+	"summary" text NOT NULL,
+	"detail" jsonb DEFAULT '{}'::jsonb NOT NULL
+);
+--> statement-breakpoint
 CREATE TABLE "run_sheet_sends" (
 	"id" uuid PRIMARY KEY DEFAULT gen_random_uuid() NOT NULL,
 	"venue_id" uuid NOT NULL,
@@ -71,6 +81,9 @@ CREATE TABLE "venue_safety_items" (
 );
 --> statement-breakpoint
 ALTER TABLE "venues" ADD COLUMN "run_sheet_lead_hours" integer DEFAULT 24 NOT NULL;--> statement-breakpoint
+ALTER TABLE "scene_changes" ADD CONSTRAINT "scene_changes_venue_id_venues_id_fk" FOREIGN KEY ("venue_id") REFERENCES "public"."venues"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
+ALTER TABLE "scene_changes" ADD CONSTRAINT "scene_changes_scene_id_scenes_id_fk" FOREIGN KEY ("scene_id") REFERENCES "public"."scenes"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
+ALTER TABLE "scene_changes" ADD CONSTRAINT "scene_changes_person_id_users_id_fk" FOREIGN KEY ("person_id") REFERENCES "public"."users"("id") ON DELETE set null ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "run_sheet_sends" ADD CONSTRAINT "run_sheet_sends_venue_id_venues_id_fk" FOREIGN KEY ("venue_id") REFERENCES "public"."venues"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "run_sheet_sends" ADD CONSTRAINT "run_sheet_sends_show_id_shows_id_fk" FOREIGN KEY ("show_id") REFERENCES "public"."shows"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "run_sheet_sends" ADD CONSTRAINT "run_sheet_sends_person_id_users_id_fk" FOREIGN KEY ("person_id") REFERENCES "public"."users"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
@@ -91,6 +104,7 @@ ALTER TABLE "sign_offs" ADD CONSTRAINT "sign_offs_venue_id_venues_id_fk" FOREIGN
 ALTER TABLE "sign_offs" ADD CONSTRAINT "sign_offs_show_id_shows_id_fk" FOREIGN KEY ("show_id") REFERENCES "public"."shows"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "sign_offs" ADD CONSTRAINT "sign_offs_person_id_users_id_fk" FOREIGN KEY ("person_id") REFERENCES "public"."users"("id") ON DELETE set null ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "venue_safety_items" ADD CONSTRAINT "venue_safety_items_venue_id_venues_id_fk" FOREIGN KEY ("venue_id") REFERENCES "public"."venues"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
+CREATE INDEX "scene_changes_scene" ON "scene_changes" USING btree ("scene_id","at");--> statement-breakpoint
 CREATE UNIQUE INDEX "run_sheet_sends_revision" ON "run_sheet_sends" USING btree ("show_id","person_id","revision");--> statement-breakpoint
 CREATE INDEX "run_sheet_sends_venue_show" ON "run_sheet_sends" USING btree ("venue_id","show_id");--> statement-breakpoint
 CREATE INDEX "check_results_check" ON "check_results" USING btree ("check_id","recorded_at");--> statement-breakpoint

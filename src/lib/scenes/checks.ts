@@ -6,6 +6,7 @@ import {
 	timelinePoints,
 	type TimelinePoint
 } from './timeline';
+import { responseMaxLevel } from './response';
 import type { Cue, Finding, FindingCode, Output, Scene, Severity } from './types';
 
 /** Plan continuous load at no more than 80 % of a supply's rating (common practice). */
@@ -188,7 +189,7 @@ function worstCasePoints(scene: Scene, output: Output): TimelinePoint[] {
 	const points = timelinePoints(scene, output.id, { kind: output.kind });
 	const responses = (scene.responses ?? []).filter((r) => r.outputId === output.id);
 	if (responses.length === 0) return points;
-	let floor = Math.max(...responses.map((r) => Math.max(r.minLevel ?? 0, r.maxLevel ?? 1)));
+	let floor = Math.max(...responses.map(responseMaxLevel));
 	floor = Math.min(1, Math.max(0, floor));
 	if (output.kind === 'relay') floor = floor > 0 ? 1 : 0;
 	return points.map((p) => ({ tMs: p.tMs, level: Math.max(p.level, floor) }));

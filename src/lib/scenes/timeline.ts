@@ -1,3 +1,4 @@
+import { responseLevel } from './response';
 import type { Cue, OutputKind, Scene } from './types';
 
 /** Above this a flicker is PWM territory, not a cue. */
@@ -110,9 +111,7 @@ export function levelAt(
 	for (const response of scene.responses ?? []) {
 		const depth = options.depths?.[response.sensorId];
 		if (response.outputId !== outputId || depth === undefined || !Number.isFinite(depth)) continue;
-		const low = response.minLevel ?? 0;
-		const high = response.maxLevel ?? 1;
-		level = Math.max(level, low + (high - low) * Math.min(1, Math.max(0, depth)));
+		level = Math.max(level, responseLevel(response, depth));
 	}
 	return finish(level, relay);
 }

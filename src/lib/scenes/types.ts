@@ -36,14 +36,23 @@ export interface Cue {
 	action: CueAction;
 }
 
+/** How depth becomes level: rises with depth, steps at a threshold, falls with depth, or drawn points. */
+export type ResponseShape = 'rise' | 'step' | 'fall' | 'points';
+
 /** A live link from a sensor's depth (0..1) to an output's level. */
 export interface Response {
 	id: string;
 	sensorId: string;
 	outputId: string;
-	/** Level at depth 0; defaults to 0. */
+	/** 'rise' when not given. */
+	shape?: ResponseShape;
+	/** Depth at which a 'step' switches from the low to the high level; 0.5 when not given. */
+	threshold?: number | null;
+	/** Drawn [depth, level] pairs for 'points'; straight lines between them, end levels held. */
+	points?: [number, number][] | null;
+	/** The low level (at depth 0 when rising, at depth 1 when falling); defaults to 0. */
 	minLevel?: number;
-	/** Level at depth 1; defaults to 1. */
+	/** The high level (at depth 1 when rising, at depth 0 when falling); defaults to 1. */
 	maxLevel?: number;
 }
 

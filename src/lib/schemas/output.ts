@@ -40,7 +40,9 @@ export const relaySettings = z.object({
 	onMs: optNum('Pulse on time', { gt: 0, max: 3600000 }),
 	minOnMs: optNum('Minimum on time', { min: 0, max: 3600000 }),
 	offMs: optNum('Gap between pulses', { gt: 0, max: 3600000 }),
-	minOffMs: optNum('Minimum off time', { min: 0, max: 3600000 })
+	minOffMs: optNum('Minimum off time', { min: 0, max: 3600000 }),
+	/** Highest share of time the load may be on (fog heaters, solenoid coils); blank when unrated. */
+	maxDutyPercent: optNum('Duty rating', { gt: 0, max: 100 }).optional()
 });
 
 export const outputSettingsSchema = z.discriminatedUnion(

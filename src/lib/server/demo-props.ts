@@ -64,7 +64,8 @@ const relay = (
 	onMs: relayKind === 'pneumatic' ? 250 : 3000,
 	minOnMs: relayKind === 'pneumatic' ? 50 : 500,
 	offMs: relayKind === 'pneumatic' ? 1500 : 20000,
-	minOffMs: relayKind === 'pneumatic' ? 200 : 5000
+	minOffMs: relayKind === 'pneumatic' ? 200 : 5000,
+	maxDutyPercent: relayKind === 'fog' ? 25 : null
 });
 
 export const DEMO_PROPS: Record<string, DemoProp[]> = {

@@ -16,6 +16,7 @@ import { hashPassword } from './auth/password';
 import { seedDemoProps } from './demo-props';
 import { seedLanternWalk } from './demo-lantern-walk';
 import { seedDemoCalibration } from './demo-calibration';
+import { seedDemoScenes } from './demo-scenes';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
 export const DEMO_PASSWORD = 'lantern-demo-2026';
@@ -98,6 +99,7 @@ export async function seedDemo(db: Db) {
 		await seedDemoProps(db, venue.id, v.slug);
 		if (v.slug === 'hollow-pines-trail') await seedLanternWalk(db, venue.id);
 		await seedDemoCalibration(db, venue.id, v.slug);
+		await seedDemoScenes(db, venue.id, v.slug, ids.designer);
 	}
 	await seedSchedule(db, ids);
 	return ids;

@@ -26,7 +26,8 @@ export const OUTPUT_DEFAULTS: Record<'led_string' | 'relay', Record<string, stri
 		onMs: '250',
 		minOnMs: '50',
 		offMs: '1000',
-		minOffMs: '200'
+		minOffMs: '200',
+		maxDutyPercent: ''
 	}
 };
 
@@ -71,6 +72,7 @@ export const OUTPUT_FIELDS: Record<'led_string' | 'relay', Field[]> = {
 		{ name: 'onMs', label: 'Pulse on time', unit: 'ms' },
 		{ name: 'minOnMs', label: 'Minimum on time', unit: 'ms' },
 		{ name: 'offMs', label: 'Gap between pulses', unit: 'ms' },
-		{ name: 'minOffMs', label: 'Minimum off time', unit: 'ms' }
+		{ name: 'minOffMs', label: 'Minimum off time', unit: 'ms' },
+		{ name: 'maxDutyPercent', label: 'Duty rating (optional)', unit: '%' }
 	]
 };

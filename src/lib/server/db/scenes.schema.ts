@@ -17,15 +17,19 @@ import { rooms, venues } from './venues.schema';
 import { outputs, props, sensors } from './props.schema';
 import { shows } from './schedule.schema';
 import type { CueAction } from '../../scenes/types';
+import {
+	RESPONSE_SHAPES,
+	SCENE_TRIGGERS,
+	type ResponseShape,
+	type SceneTrigger
+} from '../../schemas/scene-words';
 
 /** How a scene starts: a sensor entering its trigger range, a timer loop, or by hand. */
-export const SCENE_TRIGGERS = ['sensor', 'timer', 'manual'] as const;
-export type SceneTrigger = (typeof SCENE_TRIGGERS)[number];
+export { SCENE_TRIGGERS, RESPONSE_SHAPES };
+export type { SceneTrigger, ResponseShape };
 export const sceneTrigger = pgEnum('scene_trigger', SCENE_TRIGGERS);
 
 /** How a sensor's depth (0..1) becomes an output level before the output's brightness curve. */
-export const RESPONSE_SHAPES = ['rise', 'step', 'fall', 'points'] as const;
-export type ResponseShape = (typeof RESPONSE_SHAPES)[number];
 export const responseShape = pgEnum('response_shape', RESPONSE_SHAPES);
 
 const venueId = () =>
@@ -145,4 +149,26 @@ export const standDowns = pgTable(
 		at: timestamp('at', { withTimezone: true }).notNull().defaultNow()
 	},
 	(t) => [uniqueIndex('stand_downs_show_prop').on(t.showId, t.propId)]
+);
+
+/**
+ * A scene's change history: who changed what, when. Never edited, only added, so a change made
+ * after a night was signed off shows against that sign-off's time.
+ */
+export const sceneChanges = pgTable(
+	'scene_changes',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		venueId: venueId(),
+		sceneId: uuid('scene_id')
+			.notNull()
+			.references(() => scenes.id, { onDelete: 'cascade' }),
+		personId: text('person_id').references(() => users.id, { onDelete: 'set null' }),
+		at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+		/** One line for people, e.g. "Moved a cue on Warm lanterns; changed the re-arm time". */
+		summary: text('summary').notNull(),
+		/** What changed, field by field: { fields: [...], cues: {added, removed, changed}, responses: {...} }. */
+		detail: jsonb('detail').$type<Record<string, unknown>>().notNull().default({})
+	},
+	(t) => [index('scene_changes_scene').on(t.sceneId, t.at)]
 );

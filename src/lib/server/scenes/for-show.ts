@@ -32,7 +32,12 @@ export async function scenesForShow(db: Db, venueId: string, showId: string): Pr
 		.from(showSceneExclusions)
 		.where(eq(showSceneExclusions.showId, showId));
 	const rows = await db
-		.select({ id: scenes.id, name: scenes.name, roomId: scenes.roomId, trigger: scenes.triggerSensorId })
+		.select({
+			id: scenes.id,
+			name: scenes.name,
+			roomId: scenes.roomId,
+			trigger: scenes.triggerSensorId
+		})
 		.from(scenes)
 		.where(
 			and(
@@ -45,37 +50,43 @@ export async function scenesForShow(db: Db, venueId: string, showId: string): Pr
 	if (rows.length === 0) return [];
 	const ids = rows.map((r) => r.id);
 
-	const [cueProps, responseSensorProps, responseOutputProps, triggerProps, down] = await Promise.all([
-		db
-			.selectDistinct({ sceneId: sceneCues.sceneId, propId: outputs.propId })
-			.from(sceneCues)
-			.innerJoin(outputs, eq(outputs.id, sceneCues.outputId))
-			.where(inArray(sceneCues.sceneId, ids)),
-		db
-			.selectDistinct({ sceneId: sceneResponses.sceneId, propId: sensors.propId })
-			.from(sceneResponses)
-			.innerJoin(sensors, eq(sensors.id, sceneResponses.sensorId))
-			.where(inArray(sceneResponses.sceneId, ids)),
-		db
-			.selectDistinct({ sceneId: sceneResponses.sceneId, propId: outputs.propId })
-			.from(sceneResponses)
-			.innerJoin(outputs, eq(outputs.id, sceneResponses.outputId))
-			.where(inArray(sceneResponses.sceneId, ids)),
-		db
-			.select({ sceneId: scenes.id, propId: sensors.propId })
-			.from(scenes)
-			.innerJoin(sensors, eq(sensors.id, scenes.triggerSensorId))
-			.where(inArray(scenes.id, ids)),
-		db
-			.select({ propId: standDowns.propId })
-			.from(standDowns)
-			.innerJoin(props, eq(props.id, standDowns.propId))
-			.where(and(eq(standDowns.showId, showId), eq(standDowns.venueId, venueId)))
-	]);
+	const [cueProps, responseSensorProps, responseOutputProps, triggerProps, down] =
+		await Promise.all([
+			db
+				.selectDistinct({ sceneId: sceneCues.sceneId, propId: outputs.propId })
+				.from(sceneCues)
+				.innerJoin(outputs, eq(outputs.id, sceneCues.outputId))
+				.where(inArray(sceneCues.sceneId, ids)),
+			db
+				.selectDistinct({ sceneId: sceneResponses.sceneId, propId: sensors.propId })
+				.from(sceneResponses)
+				.innerJoin(sensors, eq(sensors.id, sceneResponses.sensorId))
+				.where(inArray(sceneResponses.sceneId, ids)),
+			db
+				.selectDistinct({ sceneId: sceneResponses.sceneId, propId: outputs.propId })
+				.from(sceneResponses)
+				.innerJoin(outputs, eq(outputs.id, sceneResponses.outputId))
+				.where(inArray(sceneResponses.sceneId, ids)),
+			db
+				.select({ sceneId: scenes.id, propId: sensors.propId })
+				.from(scenes)
+				.innerJoin(sensors, eq(sensors.id, scenes.triggerSensorId))
+				.where(inArray(scenes.id, ids)),
+			db
+				.select({ propId: standDowns.propId })
+				.from(standDowns)
+				.innerJoin(props, eq(props.id, standDowns.propId))
+				.where(and(eq(standDowns.showId, showId), eq(standDowns.venueId, venueId)))
+		]);
 
 	const stood = new Set(down.map((d) => d.propId));
 	const bySceneId = new Map<string, Set<string>>(ids.map((id) => [id, new Set()]));
-	for (const link of [...cueProps, ...responseSensorProps, ...responseOutputProps, ...triggerProps]) {
+	for (const link of [
+		...cueProps,
+		...responseSensorProps,
+		...responseOutputProps,
+		...triggerProps
+	]) {
 		bySceneId.get(link.sceneId)?.add(link.propId);
 	}
 	return rows.map((r) => {

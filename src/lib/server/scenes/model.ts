@@ -31,7 +31,8 @@ export function toOutputModel(row: OutputRow): Output {
 		currentAtFull: s.coilV / s.coilOhm,
 		safeState: row.safeState,
 		minOnMs: s.minOnMs ?? undefined,
-		minOffMs: s.minOffMs ?? undefined
+		minOffMs: s.minOffMs ?? undefined,
+		maxDutyPercent: s.maxDutyPercent ?? undefined
 	};
 }
 
@@ -40,11 +41,19 @@ export function toSceneModel(scene: SceneRow, cues: CueRow[], responses: Respons
 	return {
 		lengthMs: scene.lengthMs,
 		rearmMs: scene.rearmMs,
-		cues: cues.map((c) => ({ id: c.id, outputId: c.outputId, startMs: c.startMs, action: c.action })),
+		cues: cues.map((c) => ({
+			id: c.id,
+			outputId: c.outputId,
+			startMs: c.startMs,
+			action: c.action
+		})),
 		responses: responses.map((r) => ({
 			id: r.id,
 			sensorId: r.sensorId,
 			outputId: r.outputId,
+			shape: r.shape,
+			threshold: r.threshold,
+			points: r.points,
 			minLevel: r.minLevel,
 			maxLevel: r.maxLevel
 		}))
@@ -70,7 +79,11 @@ export interface LoadedScene {
 }
 
 /** One scene with its cues, responses and the outputs they use, or null when it is not in the venue. */
-export async function loadScene(db: Db, venueId: string, sceneId: string): Promise<LoadedScene | null> {
+export async function loadScene(
+	db: Db,
+	venueId: string,
+	sceneId: string
+): Promise<LoadedScene | null> {
 	const [row] = await db
 		.select()
 		.from(scenes)

@@ -14,6 +14,7 @@ import { parseNestedForm } from '$lib/server/props/form';
 import { getProp, ownsRefs, venueControllers, venueRooms } from '$lib/server/props/queries';
 import { outputValues, propChildren, sensorValues, touchProp } from '$lib/server/props/records';
 import { hazardsOf } from '$lib/props/output-maths';
+import { scenesUsingOutputs } from '$lib/server/scenes/records';
 import { propSchema } from '$lib/schemas/prop';
 import { sensorSchema } from '$lib/schemas/sensor';
 import { outputSchema } from '$lib/schemas/output';
@@ -30,10 +31,16 @@ export const load: PageServerLoad = async (event) => {
 	]);
 	const controller = controllers.find((c) => c.id === prop.controllerId) ?? null;
 	const hazards = [...new Set(children.outputs.flatMap((o) => hazardsOf(o)))];
+	const usedIn = await scenesUsingOutputs(
+		db,
+		venue.id,
+		children.outputs.map((o) => o.id)
+	);
 	return {
 		prop,
 		...children,
 		hazards,
+		usedIn,
 		rooms,
 		controllers: controllers.map((c) => ({ id: c.id, name: c.name })),
 		controller,
