@@ -58,7 +58,7 @@ test('crew see their own nights, mark one they cannot work, and get a calendar l
 }) => {
 	await signIn(page, people.crew);
 	await page.goto(`${TRAIL}/my-nights`);
-	await expect(page.getByRole('link', { name: 'Fri 1 Oct 2027' })).toBeVisible();
+	await expect(page.getByRole('link', { name: 'Fri 1 Oct 2027', exact: true })).toBeVisible();
 	await page.getByRole('button', { name: 'I cannot work Sat 2 Oct 2027' }).click();
 	await expect(page.getByRole('button', { name: 'I can work Sat 2 Oct 2027' })).toBeVisible();
 	await page.getByRole('button', { name: 'I can work Sat 2 Oct 2027' }).click();

@@ -1,8 +1,9 @@
-import { and, eq, inArray, notInArray } from 'drizzle-orm';
+import { and, asc, eq, gt, inArray, notInArray } from 'drizzle-orm';
 import type { Db } from '$lib/server/db/client';
 import {
 	outputs,
 	props,
+	sceneChanges,
 	sceneCues,
 	sceneResponses,
 	scenes,
@@ -99,4 +100,43 @@ export async function scenesForShow(db: Db, venueId: string, showId: string): Pr
 			stoodDown: propIds.some((id) => stood.has(id))
 		};
 	});
+}
+
+export interface ChangeAfterSignOff {
+	sceneId: string;
+	sceneName: string;
+	summary: string;
+	personId: string | null;
+	at: Date;
+}
+
+/**
+ * Changes to a night's scenes made after the night was signed off, oldest first: the sign-off
+ * vouched for the scenes as they were, so these are what nobody has checked.
+ */
+export async function changesAfterSignOff(
+	db: Db,
+	venueId: string,
+	sceneIds: string[],
+	signedAt: Date
+): Promise<ChangeAfterSignOff[]> {
+	if (sceneIds.length === 0) return [];
+	return db
+		.select({
+			sceneId: sceneChanges.sceneId,
+			sceneName: scenes.name,
+			summary: sceneChanges.summary,
+			personId: sceneChanges.personId,
+			at: sceneChanges.at
+		})
+		.from(sceneChanges)
+		.innerJoin(scenes, eq(scenes.id, sceneChanges.sceneId))
+		.where(
+			and(
+				eq(sceneChanges.venueId, venueId),
+				inArray(sceneChanges.sceneId, sceneIds),
+				gt(sceneChanges.at, signedAt)
+			)
+		)
+		.orderBy(asc(sceneChanges.at));
 }

@@ -21,7 +21,7 @@ import { notifyShow } from '$lib/server/checklists/live';
 import { signOff, standDown } from '$lib/server/checklists/signoff';
 import { loadChecklist } from '$lib/server/checklists/state';
 import { syncChecklist } from '$lib/server/checklists/sync';
-import { scenesForShow } from '$lib/server/scenes/for-show';
+import { changesAfterSignOff, scenesForShow } from '$lib/server/scenes/for-show';
 import { sceneExclusionSchema, signOffSchema, standDownSchema } from '$lib/schemas/checklist';
 import { progressByRoom, signOffBlockers } from '$lib/checklists/view';
 import { keep, parseForm } from '$lib/server/forms';
@@ -86,6 +86,14 @@ export const load: PageServerLoad = async (event) => {
 				.where(and(eq(props.venueId, venue.id), inArray(props.id, nightPropIds)))
 				.orderBy(asc(props.name))
 		: [];
+	const lateChanges = checklist.signOff
+		? await changesAfterSignOff(
+				db,
+				venue.id,
+				night.map((s) => s.id),
+				new Date(checklist.signOff.at)
+			)
+		: [];
 	const down = new Set(checklist.standDowns.map((d) => d.propId));
 	const failing = new Set(
 		checklist.checks.filter((c) => c.latest?.outcome === 'fail' && c.propId).map((c) => c.propId)
@@ -101,6 +109,7 @@ export const load: PageServerLoad = async (event) => {
 			stoodDown: s.stoodDown
 		})),
 		leftOut: left.map((s) => ({ ...s, room: roomName(s.roomId) })),
+		changedAfterSignOff: lateChanges.map((c) => ({ ...c, at: c.at.toISOString() })),
 		standDownChoices: nightProps
 			.filter((p) => !down.has(p.id))
 			.map((p) => ({ ...p, failing: failing.has(p.id) })),
@@ -325,6 +334,7 @@ export const actions: Actions = {
 			detail: { date: show.date, scene: scene.name }
 		});
 		await notifyShow(db, show.id);
+		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'exclude', saved: true };
 	},
 	include: async (event) => {
@@ -356,6 +366,7 @@ export const actions: Actions = {
 				detail: { date: show.date, scene: parsed.data.sceneId }
 			});
 		await notifyShow(db, show.id);
+		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'include', saved: true };
 	},
 	standDown: async (event) => {
@@ -372,6 +383,8 @@ export const actions: Actions = {
 				values: keep(parsed.raw),
 				errors: { propId: [done.message] }
 			});
+		// Crew who already have a run sheet learn that the prop is held in its safe state tonight.
+		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'standDown', saved: true };
 	},
 	signOff: async (event) => {
