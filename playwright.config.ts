@@ -55,6 +55,7 @@ export default defineConfig({
 		{
 			name: 'sessions',
 			testMatch: /sessions\.setup\.ts/,
+			fullyParallel: true,
 			use: { ...devices['Desktop Chrome'] }
 		},
 		{
