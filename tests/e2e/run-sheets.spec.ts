@@ -4,6 +4,9 @@ import { TRAIL, firstLink, lastMailId, people, signIn, waitForMail } from './sup
 test('receiving a run-sheet e-mail', async ({ page, context }) => {
 	test.setTimeout(90_000);
 	await signIn(page, people.manager);
+	// Tonight tells the show manager where the next show's run sheets stand.
+	await page.goto(TRAIL);
+	await expect(page.getByTestId('tonight-run-sheets')).toContainText('Not sent yet.');
 	await page.goto(`${TRAIL}/seasons`);
 	await page.getByRole('link', { name: 'Hollow Pines Autumn 2027' }).click();
 	await page.getByRole('link', { name: 'Fri 8 Oct 2027' }).click();

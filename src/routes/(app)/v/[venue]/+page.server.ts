@@ -12,6 +12,7 @@ import { localTime } from '$lib/util/when';
 import { loadChecklist } from '$lib/server/checklists/state';
 import { syncChecklist } from '$lib/server/checklists/sync';
 import { progressByRoom, stateOf } from '$lib/checklists/view';
+import { runSheetDelivery } from '$lib/server/runsheets/send';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -46,8 +47,13 @@ export const load: PageServerLoad = async (event) => {
 				signedBy: state.signOff?.personName ?? null
 			};
 		}
+		const planner = venue.role === 'owner' || venue.role === 'show_manager';
+		const delivery = planner ? await runSheetDelivery(db, venue.id, show.id) : null;
 		next = {
 			checklist,
+			runSheets: delivery
+				? { sent: delivery.sent, failed: delivery.failed, total: delivery.total }
+				: null,
 			id: show.id,
 			date: show.date,
 			status: show.status,
