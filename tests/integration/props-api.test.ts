@@ -154,6 +154,17 @@ describe('props API', () => {
 		expect(none.status).toBe(400);
 		expect(none.body!.message).toBe('Send a JSON body.');
 
+		// JSON, but null: the answer says what shape is wanted, not the checker's own words.
+		const empty = await callHandler(list.POST as never, {
+			path: base(),
+			params: { venue: slug },
+			person: designer,
+			body: 'null',
+			headers: { 'content-type': 'application/json' }
+		});
+		expect(empty.status).toBe(400);
+		expect(empty.body!.message).toMatch(/^Send a JSON object with the fields by name/);
+
 		const bad = await callHandler(list.POST as never, {
 			path: base(),
 			params: { venue: slug },

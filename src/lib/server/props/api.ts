@@ -10,6 +10,15 @@ export async function readJson<T extends z.ZodType>(request: Request, schema: T)
 			ok: false as const,
 			response: json({ message: 'Send a JSON body.' }, { status: 400 })
 		};
+	// null, a bare string or a list: say what is wanted rather than the checker's own words.
+	if (typeof body !== 'object' || body === null || Array.isArray(body))
+		return {
+			ok: false as const,
+			response: json(
+				{ message: 'Send a JSON object with the fields by name, like {"name": "…"}.' },
+				{ status: 400 }
+			)
+		};
 	const result = schema.safeParse(body);
 	if (!result.success)
 		return {
