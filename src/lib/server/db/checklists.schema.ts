@@ -12,18 +12,15 @@ import {
 	uuid
 } from 'drizzle-orm/pg-core';
 import { users } from './auth.schema';
-import { rooms, venues } from './venues.schema';
+import { rooms } from './venues.schema';
 import { outputs, props, sensors } from './props.schema';
 import { shows } from './schedule.schema';
 import { CHECK_KINDS, type CheckExpected } from '../../checklists/generate';
+import { venueId } from './columns';
 
 export const checkKind = pgEnum('check_kind', CHECK_KINDS);
 export const checkOutcome = pgEnum('check_outcome', ['pass', 'fail']);
 
-const venueId = () =>
-	uuid('venue_id')
-		.notNull()
-		.references(() => venues.id, { onDelete: 'cascade' });
 const showId = () =>
 	uuid('show_id')
 		.notNull()

@@ -11,7 +11,7 @@ import {
 	uuid
 } from 'drizzle-orm/pg-core';
 import { users } from './auth.schema';
-import { rooms, venues } from './venues.schema';
+import { rooms } from './venues.schema';
 import {
 	OUTPUT_KINDS,
 	PROP_STATUSES,
@@ -22,6 +22,7 @@ import {
 import type { SensorSettings } from '../../schemas/sensor';
 import type { OutputSettings } from '../../schemas/output';
 import type { BrightnessCurve } from '../../curves/curve';
+import { createdAt, venueId } from './columns';
 
 /** What applying a capture's calibration stores on the sensor. */
 export interface SensorCalibration {
@@ -43,12 +44,6 @@ export const outputKind = pgEnum('output_kind', OUTPUT_KINDS);
 export const relayKind = pgEnum('relay_kind', RELAY_KINDS);
 export const safeState = pgEnum('safe_state', SAFE_STATES);
 export const propFileKind = pgEnum('prop_file_kind', ['photo', 'wiring']);
-
-const venueId = () =>
-	uuid('venue_id')
-		.notNull()
-		.references(() => venues.id, { onDelete: 'cascade' });
-const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
 
 export const controllers = pgTable(
 	'controllers',

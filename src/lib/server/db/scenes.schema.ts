@@ -13,7 +13,7 @@ import {
 	uuid
 } from 'drizzle-orm/pg-core';
 import { users } from './auth.schema';
-import { rooms, venues } from './venues.schema';
+import { rooms } from './venues.schema';
 import { outputs, props, sensors } from './props.schema';
 import { shows } from './schedule.schema';
 import type { CueAction } from '../../scenes/types';
@@ -23,6 +23,7 @@ import {
 	type ResponseShape,
 	type SceneTrigger
 } from '../../schemas/scene-words';
+import { createdAt, venueId } from './columns';
 
 /** How a scene starts: a sensor entering its trigger range, a timer loop, or by hand. */
 export { SCENE_TRIGGERS, RESPONSE_SHAPES };
@@ -31,12 +32,6 @@ export const sceneTrigger = pgEnum('scene_trigger', SCENE_TRIGGERS);
 
 /** How a sensor's depth (0..1) becomes an output level before the output's brightness curve. */
 export const responseShape = pgEnum('response_shape', RESPONSE_SHAPES);
-
-const venueId = () =>
-	uuid('venue_id')
-		.notNull()
-		.references(() => venues.id, { onDelete: 'cascade' });
-const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
 
 export const scenes = pgTable(
 	'scenes',
