@@ -3,6 +3,7 @@
 // While working on one part: `npm test -- --vitest [vitest args]` runs only vitest, and
 // `npm test -- --e2e [playwright args]` only the build and the browser tests (say, one spec file).
 import { spawnSync } from 'node:child_process';
+import { ensureDebianPackages, hasFile } from './lib/debian.mjs';
 import { ensureDependencies } from './lib/deps.mjs';
 import { LOCAL } from './lib/ports.mjs';
 import { ensurePostgres, recreateDatabase, stopPostgres } from './lib/pg.mjs';
@@ -16,6 +17,18 @@ if (mode && !only) {
 }
 const started = Date.now();
 ensureDependencies();
+// Everything the run needs from Debian, checked before the first step rather than when it is reached.
+ensureDebianPackages(
+	only === 'vitest'
+		? []
+		: [
+				{
+					pkg: 'chromium',
+					what: 'Chromium for the browser tests',
+					present: hasFile(process.env.CHROMIUM_PATH ?? '/usr/bin/chromium')
+				}
+			]
+);
 
 /** @param {string} label @param {string[]} args @param {NodeJS.ProcessEnv} [env] */
 function step(label, args, env = {}) {

@@ -5,6 +5,7 @@ import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, readdirSync, writeFileSync, chmodSync, rmSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { connect } from 'node:net';
+import { ensureDebianPackages } from './debian.mjs';
 
 const PASSWORD = 'gloaming-local';
 const isRoot = typeof process.getuid === 'function' && process.getuid() === 0;
@@ -24,17 +25,9 @@ function findBinDir() {
 }
 
 function installFromDebian() {
-	if (!isRoot) {
-		throw new Error(
-			'PostgreSQL server binaries are missing. Install them with: sudo apt-get install -y postgresql'
-		);
-	}
-	log('server binaries missing; installing postgresql from Debian packages');
-	execFileSync('apt-get', ['update', '-qq'], { stdio: 'inherit' });
-	execFileSync('apt-get', ['install', '-y', '-qq', 'postgresql'], {
-		stdio: 'inherit',
-		env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' }
-	});
+	ensureDebianPackages([
+		{ pkg: 'postgresql', what: 'the PostgreSQL server', present: () => findBinDir() !== null }
+	]);
 }
 
 /**
