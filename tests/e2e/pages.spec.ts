@@ -143,12 +143,17 @@ async function checkA11y(page: Page, only?: string[]) {
 	expect(serious.map((v) => `${v.id}: ${v.targets.join(', ')}`)).toEqual([]);
 }
 
+// Full-page screenshots are most of a page check's time, so they are taken only when asked for
+// (`SCREENSHOTS=1 npm test -- --e2e tests/e2e/pages.spec.ts`); the phone width is still loaded and
+// checked for sideways scrolling either way.
+const SCREENSHOTS = process.env.SCREENSHOTS === '1';
+
 // Each page is checked in one browser context: dusk at desktop width (every axe rule) and phone
 // width, then low-light at desktop width. Low-light changes colours only, so there axe checks
 // contrast alone. The sessions come from sessions.setup.ts.
 for (const p of pages) {
 	test(`${p.name} passes the accessibility check`, async ({ browser, baseURL }) => {
-		// A load or two, two axe runs and three full-page screenshots.
+		// A load or two, two axe runs and, when asked for, three full-page screenshots.
 		test.setTimeout(p.slow ? 120_000 : 60_000);
 		const context = await browser.newContext({
 			baseURL,
@@ -164,11 +169,13 @@ for (const p of pages) {
 				await page.goto(path);
 			}
 		}
-		const shot = (theme: string, width: number) =>
-			page.screenshot({
+		const shot = async (theme: string, width: number) => {
+			if (!SCREENSHOTS) return;
+			await page.screenshot({
 				path: `tests/e2e/screenshots/${theme}-${p.name}-${width}.png`,
 				fullPage: true
 			});
+		};
 
 		await page.goto(path);
 		await expect(page.locator('h1').first()).toBeVisible();
@@ -176,6 +183,10 @@ for (const p of pages) {
 		await shot('dusk', 1280);
 		await page.setViewportSize({ width: 390, height: 844 });
 		await shot('dusk', 390);
+		expect(
+			await page.evaluate(() => document.documentElement.scrollWidth),
+			'the page scrolls sideways on a phone'
+		).toBeLessThanOrEqual(390);
 
 		// The server renders the theme from a cookie onto <html>; setting the same attribute here
 		// gives the same styles without loading the page again (shell.spec.ts checks the cookie).
