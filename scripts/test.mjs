@@ -67,6 +67,7 @@ if (!only) step('type check', [
 	'--output',
 	'human'
 ]);
+if (!only) step('lint', ['node_modules/eslint/bin/eslint.js', '.']);
 
 if (only !== 'e2e') {
 	recreateDatabase({ port: t.pgPort, database: 'gloaming_it' });

@@ -1,6 +1,6 @@
 import { describe, expect, inject, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import { and, eq, sql } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import {
 	assignments,
 	checkResults,

@@ -81,7 +81,7 @@ class RecordReader {
 	layout: Layout | null = null;
 	header = false;
 
-	read(fields: string[], line: number): Outcome {
+	read(fields: string[], _line: number): Outcome {
 		if (this.layout === null) {
 			const names = fields.map(columnName);
 			const known = [...TIME_SECONDS, ...TIME_MILLISECONDS, ...READING, ...LABEL];

@@ -1,3 +1,4 @@
+/* eslint-disable no-loss-of-precision -- the published coefficients are kept digit for digit as printed */
 // W. J. Cody, "Rational Chebyshev approximations for the error function", Math. Comp. 23 (1969):
 // three rational approximations, |x| <= 0.46875, 0.46875 < |x| <= 4 and |x| > 4, each accurate
 // to about double precision.

@@ -76,7 +76,7 @@ export const seasonFormSchema = z
 			.transform((v) => (v ? v : null))
 	})
 	.transform((form, ctx) => {
-		let rule = '';
+		let rule: string;
 		try {
 			if (form.ruleMode === 'typed') {
 				if (!form.rule) {
