@@ -3,6 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { and, eq } from 'drizzle-orm';
 import {
 	assignments,
+	checkPhotos,
 	checkResults,
 	checks,
 	outputs,
@@ -21,8 +22,9 @@ import {
 import { createDb } from '../../src/lib/server/db/client';
 import { syncChecklist } from '../../src/lib/server/checklists/sync';
 import { loadChecklist } from '../../src/lib/server/checklists/state';
-import { recordResult } from '../../src/lib/server/checklists/record';
-import { signOff, standDown } from '../../src/lib/server/checklists/signoff';
+import { isShowPhotoKey, photoPrefix, recordResult } from '../../src/lib/server/checklists/record';
+import { crewProblems, signOff, standDown } from '../../src/lib/server/checklists/signoff';
+import { signOffBlockers } from '../../src/lib/checklists/view';
 import { createLiveHub, notifyShow, showEventStream } from '../../src/lib/server/checklists/live';
 import type { Role } from '../../src/lib/roles';
 import { makePerson, makeVenue, testDb } from './db';
@@ -430,14 +432,18 @@ describe('sign-off', () => {
 		const after = await loadChecklist(db, venue, n.show.id);
 		expect(after.signOff?.personName).toBe('Ada Manager');
 		expect(after.standDowns.map((d) => d.reason)).toEqual(['Plate reads high after rain']);
-		// The signed night is closed to new results.
+		// The signed night takes a result only as a late correction, which changes nothing signed.
 		const late = await recordResult(db, {
 			venue,
 			personId: n.manager.id,
 			showId: n.show.id,
-			body: { clientId: randomUUID(), checkId: state.checks[0].id, outcome: 'pass' }
+			body: { clientId: randomUUID(), checkId: state.checks[0].id, outcome: 'fail' }
 		});
-		expect(late).toMatchObject({ ok: false, status: 409 });
+		expect(late).toMatchObject({ ok: true, result: { afterSignOff: true } });
+		const corrected = await loadChecklist(db, venue, n.show.id);
+		expect(corrected.corrections.map((r) => r.outcome)).toEqual(['fail']);
+		expect(corrected.signOff?.at).toBe(after.signOff?.at);
+		expect(corrected.checks[0].latest?.afterSignOff).toBe(false);
 		// Deleting the venue still cascades through the append-only tables.
 		await db.delete(venues).where(eq(venues.id, n.venue.id));
 		expect(await db.select().from(signOffs).where(eq(signOffs.showId, n.show.id))).toHaveLength(0);
@@ -462,5 +468,204 @@ describe('live progress', () => {
 		} finally {
 			await listener.sql.end();
 		}
+	});
+});
+
+const minutes = (n: number) => new Date(Date.now() + n * 60_000).toISOString();
+
+describe('recorded and received times', () => {
+	it("keeps the phone's time, marks late arrivals, and does not order by an absurd clock", async () => {
+		const n = await night();
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const walk = (await loadChecklist(db, n.ctx('crew'), n.show.id)).checks.find(
+			(c) => c.expected.mode !== 'reading'
+		)!;
+		const send = (outcome: string, recordedAt?: unknown) =>
+			recordResult(db, {
+				venue: n.ctx('crew'),
+				personId: n.crewHere.id,
+				showId: n.show.id,
+				body: { clientId: randomUUID(), checkId: walk.id, outcome, recordedAt }
+			});
+		// Recorded offline 75 minutes ago, sent now: the phone's time is kept, the arrival marked late.
+		const offline = await send('fail', minutes(-75));
+		expect(offline.ok).toBe(true);
+		if (!offline.ok) return;
+		expect(offline.result.recordedAt.toISOString()).toBe(
+			minutes(-75).slice(0, 16) + offline.result.recordedAt.toISOString().slice(16)
+		);
+		expect(Date.now() - offline.result.receivedAt.getTime()).toBeLessThan(60_000);
+		expect(offline.result.clockSuspect).toBe(false);
+		// An older pass arriving after it does not hide the newer fail.
+		await send('pass', minutes(-90));
+		let state = await loadChecklist(db, n.ctx('crew'), n.show.id);
+		let mine = state.checks.find((c) => c.id === walk.id)!;
+		expect(mine.latest).toMatchObject({ outcome: 'fail', late: true, clockSuspect: false });
+		expect(state.history.filter((h) => h.checkId === walk.id).map((h) => h.outcome)).toEqual([
+			'fail',
+			'pass'
+		]);
+
+		// A clock a day ahead, or a time 30 hours old: kept but flagged, ordered by received time.
+		const ahead = await send('pass', minutes(24 * 60));
+		const old = await send('fail', minutes(-30 * 60));
+		expect(ahead).toMatchObject({ ok: true, result: { clockSuspect: true } });
+		expect(old).toMatchObject({ ok: true, result: { clockSuspect: true } });
+		state = await loadChecklist(db, n.ctx('crew'), n.show.id);
+		mine = state.checks.find((c) => c.id === walk.id)!;
+		// The 30-hour-old fail arrived last, so by received time it is the newest.
+		expect(mine.latest).toMatchObject({ outcome: 'fail', clockSuspect: true, late: false });
+		// A minute ahead is within the allowed skew.
+		expect(await send('pass', minutes(1))).toMatchObject({
+			ok: true,
+			result: { clockSuspect: false }
+		});
+		// Not a time at all: refused in words.
+		const bad = await send('pass', 'half past nine');
+		expect(bad).toMatchObject({ ok: false, status: 400 });
+		expect(!bad.ok && bad.errors?.recordedAt?.[0]).toMatch(/ISO 8601/);
+		// No time from the phone: the received time stands for both.
+		const plain = await send('pass');
+		expect(plain.ok && plain.result.recordedAt.getTime()).toBe(
+			plain.ok && plain.result.receivedAt.getTime()
+		);
+	});
+});
+
+describe('check photos', () => {
+	it('stores only a photo the server made for this show, never a key from the phone', async () => {
+		const n = await night();
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const walk = (await loadChecklist(db, n.ctx('crew'), n.show.id)).checks.find(
+			(c) => c.expected.mode !== 'reading'
+		)!;
+		const send = (extra: Record<string, unknown>) =>
+			recordResult(db, {
+				venue: n.ctx('crew'),
+				personId: n.crewHere.id,
+				showId: n.show.id,
+				body: { clientId: randomUUID(), checkId: walk.id, outcome: 'fail', ...extra }
+			});
+		const prefix = photoPrefix(n.venue.id, n.show.id);
+		// A key sent by the phone, even one that climbs out of the show's folder, is ignored.
+		const sneaky = await send({ photoKey: `${prefix}../../../../other-venue/photo.jpg` });
+		expect(sneaky).toMatchObject({ ok: true, result: { photoKey: null } });
+		// A photo of another show is refused.
+		const [elsewhere] = await db
+			.insert(checkPhotos)
+			.values({
+				venueId: n.venue.id,
+				showId: n.other.id,
+				key: `${photoPrefix(n.venue.id, n.other.id)}${randomUUID()}.jpg`,
+				contentType: 'image/jpeg'
+			})
+			.returning();
+		expect(await send({ photoId: elsewhere.id })).toMatchObject({ ok: false, status: 400 });
+		const key = `${prefix}${randomUUID()}.jpg`;
+		const [own] = await db
+			.insert(checkPhotos)
+			.values({ venueId: n.venue.id, showId: n.show.id, key, contentType: 'image/jpeg' })
+			.returning();
+		expect(await send({ photoId: own.id })).toMatchObject({ ok: true, result: { photoKey: key } });
+		// The photo route serves only plain keys under the show's own folder.
+		expect(isShowPhotoKey(key, n.venue.id, n.show.id)).toBe(true);
+		expect(isShowPhotoKey(`${prefix}../../x/${randomUUID()}.jpg`, n.venue.id, n.show.id)).toBe(
+			false
+		);
+		expect(isShowPhotoKey(key, n.venue.id, n.other.id)).toBe(false);
+	});
+});
+
+describe('sign-off against results arriving at the same time', () => {
+	it('never signs a night whose newest result on a required check is a fail', async () => {
+		for (let round = 0; round < 4; round++) {
+			const n = await night();
+			const venue = n.ctx('show_manager');
+			await syncChecklist(db, n.venue.id, n.show.id);
+			const state = await loadChecklist(db, venue, n.show.id);
+			for (const c of state.checks)
+				await recordResult(db, {
+					venue,
+					personId: n.manager.id,
+					showId: n.show.id,
+					body:
+						c.expected.mode === 'reading'
+							? { clientId: randomUUID(), checkId: c.id, idleReading: 1480, presentReading: 1500 }
+							: { clientId: randomUUID(), checkId: c.id, outcome: 'pass' }
+				});
+			const target = state.checks.find((c) => c.required && c.expected.mode !== 'reading')!;
+			// Failing results spread over the sign-off's few milliseconds, so some land inside it.
+			const fails = Array.from({ length: 12 }, (_, i) =>
+				new Promise((ok) => setTimeout(ok, i * 2)).then(() =>
+					recordResult(db, {
+						venue: n.ctx('crew'),
+						personId: n.crewHere.id,
+						showId: n.show.id,
+						body: { clientId: randomUUID(), checkId: target.id, outcome: 'fail' }
+					})
+				)
+			);
+			const [signed, ...stored] = await Promise.all([
+				signOff(db, venue, n.show.id, n.manager.id, null),
+				...fails
+			]);
+			// Every failing result is stored, either before the sign-off (which then refuses) or after it.
+			expect(stored.every((r) => r.ok)).toBe(true);
+			const after = await loadChecklist(db, venue, n.show.id);
+			if (signed.ok) {
+				expect(signOffBlockers(after.checks)).toEqual([]);
+				const rows = await db
+					.select()
+					.from(checkResults)
+					.where(and(eq(checkResults.checkId, target.id), eq(checkResults.outcome, 'fail')));
+				expect(rows.every((r) => r.afterSignOff)).toBe(true);
+				expect(after.corrections).toHaveLength(rows.length);
+			} else {
+				expect(after.signOff).toBeNull();
+				expect(after.history.filter((h) => h.afterSignOff)).toEqual([]);
+			}
+		}
+	});
+});
+
+describe("sign-off and the night's crew problems", () => {
+	it('asks for each problem to be acknowledged and keeps the acknowledgements with the sign-off', async () => {
+		const n = await night();
+		const venue = n.ctx('show_manager');
+		await db
+			.insert(positions)
+			.values({ venueId: n.venue.id, name: 'Safety lead', safetyPost: true });
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const state = await loadChecklist(db, venue, n.show.id);
+		for (const c of state.checks)
+			await recordResult(db, {
+				venue,
+				personId: n.manager.id,
+				showId: n.show.id,
+				body:
+					c.expected.mode === 'reading'
+						? { clientId: randomUUID(), checkId: c.id, idleReading: 1480, presentReading: 1500 }
+						: { clientId: randomUUID(), checkId: c.id, outcome: 'pass' }
+			});
+		const problems = await crewProblems(db, n.venue.id, n.show.id);
+		expect(problems.map((p) => p.message)).toEqual([
+			'Safety lead is required and nobody is assigned.'
+		]);
+		const refused = await signOff(db, venue, n.show.id, n.manager.id, null);
+		expect(refused).toMatchObject({ ok: false, unacknowledged: [{ kind: 'unfilled' }] });
+		expect(refused.ok ? '' : refused.message).toMatch(/Acknowledge/);
+		expect(
+			await signOff(db, venue, n.show.id, n.manager.id, null, ['unfilled:nope'])
+		).toMatchObject({ ok: false });
+		expect(await signOff(db, venue, n.show.id, n.manager.id, null, [problems[0].key])).toEqual({
+			ok: true
+		});
+		const after = await loadChecklist(db, venue, n.show.id);
+		expect(after.signOff?.acknowledged).toEqual([
+			{ key: problems[0].key, message: 'Safety lead is required and nobody is assigned.' }
+		]);
+		await expect(
+			db.update(signOffs).set({ acknowledged: [] }).where(eq(signOffs.showId, n.show.id))
+		).rejects.toThrow();
 	});
 });

@@ -10,7 +10,16 @@ export interface ResultView {
 	note: string | null;
 	photoUrl: string | null;
 	personName: string;
+	/** When the phone recorded it. */
 	recordedAt: string;
+	/** When the server stored it. */
+	receivedAt: string;
+	/** The phone's clock looked wrong: ordered by the received time instead. */
+	clockSuspect: boolean;
+	/** Sent well after it was recorded (it waited on the phone). */
+	late: boolean;
+	/** Arrived after sign-off: a late correction, not part of what was signed. */
+	afterSignOff: boolean;
 }
 
 export interface CheckView {
@@ -41,13 +50,17 @@ export interface SignOffView {
 	personName: string;
 	at: string;
 	note: string | null;
+	/** Crew problems acknowledged with the sign-off. */
+	acknowledged: { key: string; message: string }[];
 }
 
 export interface ChecklistView {
 	showId: string;
 	checks: CheckView[];
-	/** Every result of the night, newest first. */
+	/** Every result of the night, newest first (by recorded time, or received when the clock looked wrong). */
 	history: (ResultView & { label: string })[];
+	/** Results that arrived after sign-off, newest first. */
+	corrections: (ResultView & { label: string })[];
 	standDowns: StandDownView[];
 	signOff: SignOffView | null;
 }

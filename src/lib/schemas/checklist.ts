@@ -27,7 +27,13 @@ export const resultSchema = z.object({
 		.optional()
 		.nullable()
 		.transform((v) => v || null),
-	photoKey: z.string().max(300).optional().nullable()
+	/** The id the photo upload answered with; the server looks up its stored key. */
+	photoId: z.uuid({ error: 'Upload the photo again.' }).optional().nullable(),
+	/** When the phone recorded it (ISO 8601 with offset); judged against the server's clock. */
+	recordedAt: z
+		.iso.datetime({ offset: true, error: 'Send the recorded time as an ISO 8601 date and time.' })
+		.optional()
+		.nullable()
 });
 export type ResultInput = z.input<typeof resultSchema>;
 
@@ -41,6 +47,11 @@ export const standDownSchema = z.object({
 });
 
 export const signOffSchema = z.object({
+	/** Keys of the crew problems the show manager acknowledged (checkboxes named ack). */
+	ack: z
+		.union([z.string().max(300), z.array(z.string().max(300)).max(200)])
+		.optional()
+		.transform((v) => (v === undefined ? [] : Array.isArray(v) ? v : [v])),
 	note: z
 		.string()
 		.trim()

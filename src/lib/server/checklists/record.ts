@@ -1,27 +1,56 @@
-import { and, eq, isNull, sql } from 'drizzle-orm';
+import { and, eq, isNull } from 'drizzle-orm';
 import { z } from 'zod';
 import { evaluateSensorTest } from '$lib/checklists/evaluate';
+import { judgeRecordedAt } from '$lib/checklists/times';
 import { resultSchema } from '$lib/schemas/checklist';
 import type { Role } from '$lib/roles';
 import type { Db } from '$lib/server/db/client';
-import { checkResults, checks, signOffs } from '$lib/server/db/schema';
+import { checkPhotos, checkResults, checks, shows, signOffs } from '$lib/server/db/schema';
 import { showAccess } from './access';
 import { notifyShow } from './live';
 
 type Result = typeof checkResults.$inferSelect;
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 export type RecordOutcome =
 	| { ok: true; result: Result; replay: boolean }
 	| { ok: false; status: number; message: string; errors?: Record<string, string[]> };
 
-/** Where a check photo of this show must live in the object store. */
+/** Where a check photo of this show lives in the object store. Only the server makes these keys. */
 export const photoPrefix = (venueId: string, showId: string) =>
 	`venues/${venueId}/shows/${showId}/checks/`;
+
+/** A stored key the photo route may serve for this show: under its prefix, one plain file name. */
+export function isShowPhotoKey(key: string, venueId: string, showId: string) {
+	const prefix = photoPrefix(venueId, showId);
+	return key.startsWith(prefix) && /^[0-9a-f-]{36}\.(png|jpg|webp)$/.test(key.slice(prefix.length));
+}
+
+/**
+ * Take the show's row lock for the rest of the transaction. Recording and sign-off both take it,
+ * so a result is either counted by a sign-off or arrives after it, never in between.
+ */
+export async function lockShow(tx: Tx, venueId: string, showId: string) {
+	const [row] = await tx
+		.select({ id: shows.id })
+		.from(shows)
+		.where(and(eq(shows.id, showId), eq(shows.venueId, venueId)))
+		.for('update');
+	return Boolean(row);
+}
+
+const refused = (
+	status: number,
+	message: string,
+	errors?: Record<string, string[]>
+): RecordOutcome => ({ ok: false, status, message, errors });
 
 /**
  * Record one result, appended to the check's history. A clientId already stored answers with the
  * stored result, so a phone replaying a result after a dropped connection never stores it twice.
- * Sensor tests with a band are judged here from the readings, whatever the phone said.
+ * Sensor tests with a band are judged here from the readings, whatever the phone said. The phone's
+ * recorded time is kept beside the received time; a result arriving after sign-off is kept as a
+ * late correction and leaves the sign-off as it was.
  */
 export async function recordResult(
 	db: Db,
@@ -31,40 +60,27 @@ export async function recordResult(
 	if (!access.ok) return access;
 	const parsed = resultSchema.safeParse(opts.body);
 	if (!parsed.success)
-		return {
-			ok: false,
-			status: 400,
-			message: 'The result could not be recorded; see the fields.',
-			errors: z.flattenError(parsed.error).fieldErrors as Record<string, string[]>
-		};
+		return refused(
+			400,
+			'The result could not be recorded; see the fields.',
+			z.flattenError(parsed.error).fieldErrors as Record<string, string[]>
+		);
 	const input = parsed.data;
 	const venueId = opts.venue.id;
 	const showId = access.show.id;
 
-	const [earlier] = await db
-		.select()
-		.from(checkResults)
-		.where(eq(checkResults.clientId, input.clientId));
-	if (earlier) {
+	const replayOf = async (): Promise<RecordOutcome | null> => {
+		const [earlier] = await db
+			.select()
+			.from(checkResults)
+			.where(eq(checkResults.clientId, input.clientId));
+		if (!earlier) return null;
 		if (earlier.checkId === input.checkId && earlier.venueId === venueId)
 			return { ok: true, result: earlier, replay: true };
-		return {
-			ok: false,
-			status: 409,
-			message: 'That result id was already used for another check.'
-		};
-	}
-
-	const [signed] = await db
-		.select({ id: signOffs.id })
-		.from(signOffs)
-		.where(eq(signOffs.showId, showId));
-	if (signed)
-		return {
-			ok: false,
-			status: 409,
-			message: 'This night is signed off; its checklist is closed.'
-		};
+		return refused(409, 'That result id was already used for another check.');
+	};
+	const seen = await replayOf();
+	if (seen) return seen;
 
 	const [check] = await db
 		.select()
@@ -77,8 +93,7 @@ export async function recordResult(
 				isNull(checks.removedAt)
 			)
 		);
-	if (!check)
-		return { ok: false, status: 404, message: "That check is no longer on this night's list." };
+	if (!check) return refused(404, "That check is no longer on this night's list.");
 
 	let outcome = input.outcome;
 	let idle: number | null = null;
@@ -88,51 +103,65 @@ export async function recordResult(
 		if (input.idleReading === null) errors.idleReading = ['Record the idle reading.'];
 		if (input.presentReading === null) errors.presentReading = ['Record the present reading.'];
 		if (Object.keys(errors).length)
-			return { ok: false, status: 400, message: 'A sensor test needs both readings.', errors };
+			return refused(400, 'A sensor test needs both readings.', errors);
 		idle = input.idleReading;
 		present = input.presentReading;
 		outcome = evaluateSensorTest(check.expected.band, idle!, present!).outcome;
 	} else if (!outcome) {
-		return {
-			ok: false,
-			status: 400,
-			message: 'Choose pass or fail.',
-			errors: { outcome: ['Choose pass or fail.'] }
-		};
+		return refused(400, 'Choose pass or fail.', { outcome: ['Choose pass or fail.'] });
 	}
-	if (input.photoKey && !input.photoKey.startsWith(photoPrefix(venueId, showId)))
-		return {
-			ok: false,
-			status: 400,
-			message: 'That photo belongs to another show.',
-			errors: { photoKey: ['Upload the photo again.'] }
-		};
 
-	const [row] = await db
-		.insert(checkResults)
-		.values({
-			venueId,
-			showId,
-			checkId: check.id,
-			personId: opts.personId,
-			outcome: outcome!,
-			idleReading: idle,
-			presentReading: present,
-			note: input.note,
-			photoKey: input.photoKey ?? null,
-			clientId: input.clientId,
-			recordedAt: sql`clock_timestamp()`
-		})
-		.onConflictDoNothing({ target: checkResults.clientId })
-		.returning();
-	if (!row) {
-		// The same result arrived twice at once: the other request stored it.
-		const [stored] = await db
-			.select()
-			.from(checkResults)
-			.where(eq(checkResults.clientId, input.clientId));
-		return { ok: true, result: stored, replay: true };
+	let photoKey: string | null = null;
+	if (input.photoId) {
+		const [photo] = await db
+			.select({ key: checkPhotos.key })
+			.from(checkPhotos)
+			.where(
+				and(
+					eq(checkPhotos.id, input.photoId),
+					eq(checkPhotos.showId, showId),
+					eq(checkPhotos.venueId, venueId)
+				)
+			);
+		if (!photo)
+			return refused(400, 'That photo was not uploaded for this night.', {
+				photoId: ['Upload the photo again.']
+			});
+		photoKey = photo.key;
 	}
+
+	const row = await db.transaction(async (tx) => {
+		await lockShow(tx, venueId, showId);
+		const [signed] = await tx
+			.select({ id: signOffs.id })
+			.from(signOffs)
+			.where(eq(signOffs.showId, showId));
+		const receivedAt = new Date();
+		const when = judgeRecordedAt(input.recordedAt ? new Date(input.recordedAt) : null, receivedAt);
+		const [stored] = await tx
+			.insert(checkResults)
+			.values({
+				venueId,
+				showId,
+				checkId: check.id,
+				personId: opts.personId,
+				outcome: outcome!,
+				idleReading: idle,
+				presentReading: present,
+				note: input.note,
+				photoKey,
+				clientId: input.clientId,
+				recordedAt: when.recordedAt,
+				receivedAt,
+				clockSuspect: when.clockSuspect,
+				afterSignOff: Boolean(signed)
+			})
+			.onConflictDoNothing({ target: checkResults.clientId })
+			.returning();
+		return stored ?? null;
+	});
+	// The same result arrived twice at once: the other request stored it.
+	if (!row) return (await replayOf())!;
 	await notifyShow(db, showId);
 	return { ok: true, result: row, replay: false };
 }

@@ -1,7 +1,9 @@
 import { and, eq } from 'drizzle-orm';
 import { signOffBlockers } from '$lib/checklists/view';
 import type { Db } from '$lib/server/db/client';
-import { props, signOffs, standDowns } from '$lib/server/db/schema';
+import { props, signOffs, standDowns, type CrewProblemAck } from '$lib/server/db/schema';
+import { showConflicts } from '$lib/server/schedule/shows';
+import { lockShow } from './record';
 import { isUniqueViolation } from '$lib/server/db/errors';
 import { audit } from '$lib/server/audit';
 import { notifyShow } from './live';
@@ -50,43 +52,96 @@ export async function standDown(
 }
 
 /**
- * Sign the night off: allowed only when every required check passed or its prop is stood down.
- * The sign-off is permanent; the answer lists what still stands in the way.
+ * The night's crew problems (required posts unfilled, double-bookings, unavailable people
+ * assigned), each with a key the sign-off form sends back to acknowledge it.
+ */
+export async function crewProblems(
+	db: Db,
+	venueId: string,
+	showId: string
+): Promise<CrewProblemAck[]> {
+	const seen = new Map<string, number>();
+	return (await showConflicts(db, venueId, showId)).map((c) => {
+		const base = `${c.kind}:${c.positionId ?? c.personId ?? ''}`;
+		const n = (seen.get(base) ?? 0) + 1;
+		seen.set(base, n);
+		return { key: n === 1 ? base : `${base}:${n}`, kind: c.kind, message: c.message };
+	});
+}
+
+export type SignOffRefusal = {
+	ok: false;
+	message: string;
+	blockers: string[];
+	/** Crew problems not yet acknowledged. */
+	unacknowledged?: CrewProblemAck[];
+};
+
+/**
+ * Sign the night off: allowed only when every required check passed or its prop is stood down,
+ * and the show manager acknowledged each of the night's crew problems (kept with the sign-off).
+ * Holds the show's lock from reading the checks to storing the sign-off, so a result arriving
+ * meanwhile waits and is then stored as a late correction. The sign-off is permanent.
  */
 export async function signOff(
 	db: Db,
 	venue: Venue,
 	showId: string,
 	personId: string,
-	note: string | null
-): Promise<{ ok: true } | { ok: false; message: string; blockers: string[] }> {
-	const state = await loadChecklist(db, venue, showId);
-	if (state.signOff)
-		return { ok: false, message: 'This night is already signed off.', blockers: [] };
-	if (state.checks.length === 0)
-		return { ok: false, message: 'There is no checklist for this night yet.', blockers: [] };
-	const blockers = signOffBlockers(state.checks);
-	if (blockers.length)
-		return {
-			ok: false,
-			message: `Not yet: ${blockers.length} required ${blockers.length === 1 ? 'check has' : 'checks have'} not passed. Record them, or stand the failing prop down with a reason.`,
-			blockers
-		};
-	try {
-		await db.insert(signOffs).values({ venueId: venue.id, showId, personId, note });
-	} catch (e) {
-		if (isUniqueViolation(e))
-			return { ok: false, message: 'This night is already signed off.', blockers: [] };
-		throw e;
-	}
+	note: string | null,
+	acknowledged: string[] = []
+): Promise<{ ok: true } | SignOffRefusal> {
+	const problems = await crewProblems(db, venue.id, showId);
+	const acked = new Set(acknowledged);
+	const unacknowledged = problems.filter((p) => !acked.has(p.key));
+	const done = await db
+		.transaction(
+			async (tx): Promise<{ ok: true; checks: number; stoodDown: string[] } | SignOffRefusal> => {
+				await lockShow(tx, venue.id, showId);
+				const state = await loadChecklist(tx, venue, showId);
+				if (state.signOff)
+					return { ok: false, message: 'This night is already signed off.', blockers: [] };
+				if (state.checks.length === 0)
+					return { ok: false, message: 'There is no checklist for this night yet.', blockers: [] };
+				const blockers = signOffBlockers(state.checks);
+				if (blockers.length)
+					return {
+						ok: false,
+						message: `Not yet: ${blockers.length} required ${blockers.length === 1 ? 'check has' : 'checks have'} not passed. Record them, or stand the failing prop down with a reason.`,
+						blockers
+					};
+				if (unacknowledged.length)
+					return {
+						ok: false,
+						message: `Acknowledge ${unacknowledged.length === 1 ? "the night's crew problem" : `each of the night's ${unacknowledged.length} crew problems`} before signing off.`,
+						blockers: [],
+						unacknowledged
+					};
+				await tx
+					.insert(signOffs)
+					.values({ venueId: venue.id, showId, personId, note, acknowledged: problems });
+				return {
+					ok: true,
+					checks: state.checks.length,
+					stoodDown: state.standDowns.map((d) => d.propName)
+				};
+			}
+		)
+		.catch((e) => {
+			if (isUniqueViolation(e))
+				return { ok: false as const, message: 'This night is already signed off.', blockers: [] };
+			throw e;
+		});
+	if (!done.ok) return done;
 	await audit(db, {
 		venueId: venue.id,
 		personId,
 		action: 'show.signed_off',
 		detail: {
 			show: showId,
-			checks: state.checks.length,
-			stoodDown: state.standDowns.map((d) => d.propName),
+			checks: done.checks,
+			stoodDown: done.stoodDown,
+			acknowledged: problems.map((p) => p.message),
 			note
 		}
 	});

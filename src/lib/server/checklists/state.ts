@@ -1,4 +1,5 @@
-import { and, asc, desc, eq, inArray, isNull } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
+import { arrivedLate, newestFirst } from '$lib/checklists/times';
 import type { ChecklistView, CheckView, ResultView } from '$lib/checklists/view';
 import { NO_ROOM } from '$lib/checklists/view';
 import type { Db } from '$lib/server/db/client';
@@ -17,7 +18,7 @@ const nameOf = (r: { name: string | null; email: string | null }) =>
 
 /** A show's checklist as the pages and the API show it: each check with its latest result. */
 export async function loadChecklist(
-	db: Db,
+	db: Pick<Db, 'select'>,
 	venue: { id: string; slug: string },
 	showId: string
 ): Promise<ChecklistView> {
@@ -32,8 +33,7 @@ export async function loadChecklist(
 			.select({ r: checkResults, name: users.name, email: users.email })
 			.from(checkResults)
 			.leftJoin(users, eq(users.id, checkResults.personId))
-			.where(and(eq(checkResults.showId, showId), eq(checkResults.venueId, venue.id)))
-			.orderBy(desc(checkResults.recordedAt)),
+			.where(and(eq(checkResults.showId, showId), eq(checkResults.venueId, venue.id))),
 		db
 			.select({ d: standDowns, propName: props.name, name: users.name, email: users.email })
 			.from(standDowns)
@@ -48,7 +48,7 @@ export async function loadChecklist(
 			.where(and(eq(signOffs.showId, showId), eq(signOffs.venueId, venue.id)))
 	]);
 	const base = `/v/${venue.slug}/shows/${showId}/checklist/photos`;
-	const results: ResultView[] = resultRows.map(({ r, name, email }) => ({
+	const unordered: ResultView[] = resultRows.map(({ r, name, email }) => ({
 		id: r.id,
 		checkId: r.checkId,
 		outcome: r.outcome,
@@ -57,10 +57,20 @@ export async function loadChecklist(
 		note: r.note,
 		photoUrl: r.photoKey ? `${base}/${r.id}` : null,
 		personName: nameOf({ name, email }),
-		recordedAt: r.recordedAt.toISOString()
+		recordedAt: r.recordedAt.toISOString(),
+		receivedAt: r.receivedAt.toISOString(),
+		clockSuspect: r.clockSuspect,
+		late: arrivedLate({
+			recordedAt: r.recordedAt.toISOString(),
+			receivedAt: r.receivedAt.toISOString(),
+			clockSuspect: r.clockSuspect
+		}),
+		afterSignOff: r.afterSignOff
 	}));
+	const results = newestFirst(unordered);
+	// A check's state is what was signed: late corrections are shown apart and change nothing.
 	const latest = new Map<string, ResultView>();
-	for (const r of results) if (!latest.has(r.checkId)) latest.set(r.checkId, r);
+	for (const r of results) if (!r.afterSignOff && !latest.has(r.checkId)) latest.set(r.checkId, r);
 	const down = new Set(downRows.map((d) => d.d.propId));
 	const list: CheckView[] = checkRows.map(({ check: c, roomName }) => ({
 		id: c.id,
@@ -85,10 +95,15 @@ export async function loadChecklist(
 			.where(inArray(checks.id, [...new Set(missing)]));
 		for (const g of gone) labels.set(g.id, `${g.label} (no longer on tonight's list)`);
 	}
+	const history = results.map((r) => ({
+		...r,
+		label: labels.get(r.checkId) ?? 'A removed check'
+	}));
 	return {
 		showId,
 		checks: list,
-		history: results.map((r) => ({ ...r, label: labels.get(r.checkId) ?? 'A removed check' })),
+		history,
+		corrections: history.filter((r) => r.afterSignOff),
 		standDowns: downRows.map(({ d, propName, name, email }) => ({
 			propId: d.propId,
 			propName,
@@ -100,7 +115,8 @@ export async function loadChecklist(
 			? {
 					personName: nameOf(signed),
 					at: signed.s.at.toISOString(),
-					note: signed.s.note
+					note: signed.s.note,
+					acknowledged: signed.s.acknowledged.map((a) => ({ key: a.key, message: a.message }))
 				}
 			: null
 	};

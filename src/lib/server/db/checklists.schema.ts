@@ -90,13 +90,45 @@ export const checkResults = pgTable(
 		photoKey: text('photo_key'),
 		/** Made by the phone before sending, so a result replayed after a dropped connection is stored once. */
 		clientId: uuid('client_id').notNull().unique(),
-		recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow()
+		/** When the phone says it was recorded (its own clock); the server's time when it sent none. */
+		recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
+		/** When the server stored it. */
+		receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
+		/**
+		 * The phone's time was in the future or more than a day before receipt: not used for ordering
+		 * (the received time is), and shown as "phone clock looked wrong".
+		 */
+		clockSuspect: boolean('clock_suspect').notNull().default(false),
+		/** Arrived after the night was signed off: kept as a late correction, the sign-off stands. */
+		afterSignOff: boolean('after_sign_off').notNull().default(false)
 	},
 	(t) => [
 		index('check_results_check').on(t.checkId, t.recordedAt),
 		index('check_results_show').on(t.showId, t.recordedAt)
 	]
 );
+
+/** A photo uploaded for a check; the server made its key, results refer to it by id. */
+export const checkPhotos = pgTable(
+	'check_photos',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		venueId: venueId(),
+		showId: showId(),
+		key: text('key').notNull().unique(),
+		contentType: text('content_type').notNull(),
+		personId: text('person_id').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [index('check_photos_show').on(t.showId)]
+);
+
+export interface CrewProblemAck {
+	/** Stable key of the problem (kind and the person or position it is about). */
+	key: string;
+	kind: 'double_booked' | 'unfilled' | 'unavailable';
+	message: string;
+}
 
 /** The show manager's permanent record that the night is ready. */
 export const signOffs = pgTable('sign_offs', {
@@ -105,5 +137,7 @@ export const signOffs = pgTable('sign_offs', {
 	showId: showId().unique(),
 	personId: text('person_id').references(() => users.id, { onDelete: 'set null' }),
 	note: text('note'),
+	/** The night's crew problems the show manager acknowledged when signing. */
+	acknowledged: jsonb('acknowledged').$type<CrewProblemAck[]>().notNull().default([]),
 	at: timestamp('at', { withTimezone: true }).notNull().defaultNow()
 });

@@ -82,6 +82,8 @@ export const positions = pgTable(
 		name: text('name').notNull(),
 		roomId: uuid('room_id').references(() => rooms.id, { onDelete: 'set null' }),
 		required: boolean('required').notNull().default(true),
+		/** A safety post gets every room's hazards and the venue's safety items on its run sheet. */
+		safetyPost: boolean('safety_post').notNull().default(false),
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 	},
 	(t) => [uniqueIndex('positions_venue_name').on(t.venueId, t.name)]

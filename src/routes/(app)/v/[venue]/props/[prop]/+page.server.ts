@@ -39,6 +39,8 @@ export const load: PageServerLoad = async (event) => {
 	return {
 		prop,
 		...children,
+		// Object keys stay on the server: the page links files by id.
+		files: children.files.map(({ objectKey: _key, ...f }) => f),
 		hazards,
 		usedIn,
 		rooms,

@@ -18,7 +18,7 @@ import {
 	users
 } from '$lib/server/db/schema';
 import { notifyShow } from '$lib/server/checklists/live';
-import { signOff, standDown } from '$lib/server/checklists/signoff';
+import { crewProblems, signOff, standDown } from '$lib/server/checklists/signoff';
 import { loadChecklist } from '$lib/server/checklists/state';
 import { syncChecklist } from '$lib/server/checklists/sync';
 import { changesAfterSignOff, scenesForShow } from '$lib/server/scenes/for-show';
@@ -134,6 +134,7 @@ export const load: PageServerLoad = async (event) => {
 		})),
 		members: members.map((m) => ({ id: m.id, name: m.name ?? m.email })),
 		conflicts: await showConflicts(db, venue.id, show.id),
+		crewProblems: checklist.signOff ? [] : await crewProblems(db, venue.id, show.id),
 		canEdit: PLANNERS.includes(venue.role),
 		runSheets: PLANNERS.includes(venue.role) ? await runSheetDelivery(db, venue.id, show.id) : null
 	};
@@ -394,13 +395,21 @@ export const actions: Actions = {
 		const parsed = await parseForm(event.request, signOffSchema);
 		if (!parsed.ok)
 			return fail(400, { action: 'signOff', values: keep(parsed.raw), errors: parsed.errors });
-		const done = await signOff(db, venue, show.id, event.locals.person!.id, parsed.data.note);
+		const done = await signOff(
+			db,
+			venue,
+			show.id,
+			event.locals.person!.id,
+			parsed.data.note,
+			parsed.data.ack
+		);
 		if (!done.ok)
 			return fail(400, {
 				action: 'signOff',
-				values: keep(parsed.raw),
+				values: keep(parsed.raw, 'ack'),
 				refused: done.message,
-				blockers: done.blockers
+				blockers: done.blockers,
+				unacknowledged: done.unacknowledged?.map((p) => p.key) ?? []
 			});
 		return { action: 'signOff', saved: true };
 	}

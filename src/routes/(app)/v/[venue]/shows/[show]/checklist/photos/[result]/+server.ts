@@ -6,6 +6,7 @@ import { requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
 import { checkResults } from '$lib/server/db/schema';
 import { showAccess } from '$lib/server/checklists/access';
+import { isShowPhotoKey } from '$lib/server/checklists/record';
 import { objectStore } from '$lib/server/objects';
 import { isUuid } from '$lib/server/props/queries';
 import type { RequestHandler } from './$types';
@@ -26,7 +27,9 @@ export const GET: RequestHandler = async (event) => {
 				eq(checkResults.venueId, venue.id)
 			)
 		);
-	if (!row?.key) error(404, 'There is no such photo.');
+	// Only a key the server made for this show is served, whatever was stored.
+	if (!row?.key || !isShowPhotoKey(row.key, venue.id, access.show.id))
+		error(404, 'There is no such photo.');
 	const { body, size } = await objectStore(env).get(row.key);
 	const ext = row.key.split('.').pop();
 	const type = ext === 'png' ? 'image/png' : ext === 'webp' ? 'image/webp' : 'image/jpeg';
