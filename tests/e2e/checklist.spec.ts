@@ -92,8 +92,20 @@ test('crew checking off pre-show sensor tests: readings on a phone, live progres
 	await expect(
 		manager.getByText('A prop is stood down: the scene holds its safe state tonight.').first()
 	).toBeVisible();
+	// The demo night has unfilled required posts: sign-off is refused until each is acknowledged.
+	await manager.getByRole('button', { name: 'Sign off the night' }).click();
+	await expect(manager.getByRole('alert')).toContainText(
+		/Acknowledge each of the night's \d+ crew problems/
+	);
+	const problems = manager
+		.getByRole('group', { name: 'Crew problems to acknowledge' })
+		.getByRole('checkbox');
+	const problemCount = await problems.count();
+	expect(problemCount).toBeGreaterThan(0);
+	for (const box of await problems.all()) await box.check();
 	await manager.getByRole('button', { name: 'Sign off the night' }).click();
 	await expect(manager.getByText('✓ Signed off by Maren Quill')).toBeVisible();
+	await expect(manager.getByTestId('acknowledged').getByRole('listitem')).toHaveCount(problemCount);
 
 	// The crew's page closes the checklist.
 	await crew.reload();
