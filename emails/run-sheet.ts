@@ -1,3 +1,4 @@
+import { zonePlace } from '../src/lib/util/when';
 import { COLOURS, button, escapeHtml, facts, frame, heading, list, textHeading } from './layout';
 
 export type RunSheetWarning =
@@ -67,7 +68,7 @@ export function renderRunSheet(d: RunSheetData) {
 	const subject = runSheetSubject(d);
 	const when: [string, string][] = [
 		['Date', d.dateLabel],
-		['Crew call', `${d.crewCall} (${d.timeZone})`],
+		['Crew call', `${d.crewCall} (${zonePlace(d.timeZone)} time)`],
 		['Doors', d.doors],
 		['Position', d.position],
 		['Rooms', d.rooms.join(', ') || 'None']

@@ -39,7 +39,9 @@ test('an invitation goes through the queue, shows as sent in the mail log, and c
 	await expect(page.getByRole('alert')).toHaveText(/not valid/);
 
 	await page.goto(`${TRAIL}/activity`);
-	await expect(page.getByText('sent an e-mail again').first()).toBeVisible();
+	await expect(
+		page.getByText(new RegExp(`sent “You are invited to .*” to ${invitee} again`)).first()
+	).toBeVisible();
 });
 
 test('a show manager sees the mail log; crew and designers do not', async ({ page, context }) => {

@@ -29,7 +29,7 @@ test('receiving a run-sheet e-mail', async ({ page, context }) => {
 
 	const mail = await waitForMail(people.crew, since);
 	expect(mail.subject).toBe('Run sheet for Fri 8 Oct 2027 at Hollow Pines Trail');
-	expect(mail.text).toContain('Crew call: 17:15 (America/New_York)');
+	expect(mail.text).toContain('Crew call: 17:15 (New York time)');
 	expect(mail.text).toContain('Position: Room tech, Lantern Walk');
 	expect(mail.text).toContain('* Lantern walk (Lantern Walk)');
 	expect(mail.text).toContain('0:06 strobe Warm lanterns at 6 Hz for 1.5 s');
@@ -78,7 +78,7 @@ test('receiving a run-sheet e-mail', async ({ page, context }) => {
 	await expect(
 		page.getByRole('heading', { level: 1, name: 'Run sheet, Fri 8 Oct 2027' })
 	).toBeVisible();
-	await expect(page.getByTestId('run-sheet-call')).toHaveText('17:45 (America/New_York)');
+	await expect(page.getByTestId('run-sheet-call')).toHaveText('17:45 (New York time)');
 	await expect(page.getByText('Strobe: photosensitivity signage must be up')).toBeVisible();
 	await expect(page.getByText('Stood down')).toHaveCount(0);
 	await page.goto(firstLink(mail.text).replace(/\/[^/]+$/, ''));

@@ -329,7 +329,7 @@ describe('sending run sheets', () => {
 		const [mail] = mailTo(t.loft.email);
 		expect(mailTo(t.loft.email)).toHaveLength(1);
 		expect(mail.subject).toMatch(/^Run sheet for .* 2031 at Test venue-/);
-		expect(mail.text).toContain('Crew call: 16:30 (America/New_York)');
+		expect(mail.text).toContain('Crew call: 16:30 (New York time)');
 		expect(mail.text).toContain('Position: Room tech, Crow Loft');
 		expect(mail.text).toContain('0:03 pulse Drop valve for 0.3 s');
 		expect(mail.html).toContain('Feathers fall');

@@ -30,3 +30,9 @@ export function localDate(at: Date, timeZone: string): string {
 		day: '2-digit'
 	}).format(at);
 }
+
+/** The place a time zone is named after, for sentences: 'America/New_York' → 'New York'. */
+export function zonePlace(timeZone: string): string {
+	const place = timeZone.split('/').pop() ?? timeZone;
+	return place.replace(/_/g, ' ');
+}

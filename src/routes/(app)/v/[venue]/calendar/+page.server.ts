@@ -51,7 +51,7 @@ export const actions: Actions = {
 			venueId: venue.id,
 			personId: event.locals.person!.id,
 			action: 'show.added',
-			detail: { date }
+			detail: { date, show: show.id }
 		});
 		return { action: 'addShow', saved: true, showId: show.id };
 	},

@@ -8,6 +8,7 @@ import { db } from '$lib/server/db';
 import {
 	assignments,
 	memberships,
+	positions,
 	props,
 	rooms,
 	scenes,
@@ -213,7 +214,7 @@ export const actions: Actions = {
 			venueId: venue.id,
 			personId: event.locals.person!.id,
 			action: 'show.changed',
-			detail: { date: show.date, doorsOpen, doorsClose, crewCall }
+			detail: { show: show.id, date: show.date, doorsOpen, doorsClose, crewCall }
 		});
 		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'times', saved: true };
@@ -229,7 +230,7 @@ export const actions: Actions = {
 			venueId: venue.id,
 			personId: event.locals.person!.id,
 			action: 'show.status',
-			detail: { date: show.date, status: parsed.data.status }
+			detail: { show: show.id, date: show.date, status: parsed.data.status }
 		});
 		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'status', saved: true };
@@ -283,7 +284,13 @@ export const actions: Actions = {
 			venueId: venue.id,
 			personId: event.locals.person!.id,
 			action: 'show.assigned',
-			detail: { date: show.date, position: post.name, person: personId, assignment: done[0].id }
+			detail: {
+				show: show.id,
+				date: show.date,
+				position: post.name,
+				person: personId,
+				assignment: done[0].id
+			}
 		});
 		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'assign', saved: true };
@@ -299,11 +306,15 @@ export const actions: Actions = {
 			.returning();
 		if (!done.length)
 			return fail(404, { action: 'unassign', message: 'That assignment no longer exists.' });
+		const [post] = await db
+			.select({ name: positions.name })
+			.from(positions)
+			.where(eq(positions.id, done[0].positionId));
 		await audit(db, {
 			venueId: venue.id,
 			personId: event.locals.person!.id,
 			action: 'show.unassigned',
-			detail: { assignment: parsed.data.id }
+			detail: { show: done[0].showId, person: done[0].personId, position: post?.name }
 		});
 		await noticeRunSheetChanges(db, venue.id, done[0].showId, event);
 		return { action: 'unassign', saved: true };
@@ -332,7 +343,7 @@ export const actions: Actions = {
 			venueId: venue.id,
 			personId: event.locals.person!.id,
 			action: 'show.scene_left_out',
-			detail: { date: show.date, scene: scene.name }
+			detail: { show: show.id, date: show.date, scene: scene.name }
 		});
 		await notifyShow(db, show.id);
 		await noticeRunSheetChanges(db, venue.id, show.id, event);
@@ -364,7 +375,7 @@ export const actions: Actions = {
 				venueId: venue.id,
 				personId: event.locals.person!.id,
 				action: 'show.scene_put_back',
-				detail: { date: show.date, scene: parsed.data.sceneId }
+				detail: { show: show.id, date: show.date, scene: parsed.data.sceneId }
 			});
 		await notifyShow(db, show.id);
 		await noticeRunSheetChanges(db, venue.id, show.id, event);

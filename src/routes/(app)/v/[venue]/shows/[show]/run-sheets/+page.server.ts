@@ -61,7 +61,7 @@ export const actions: Actions = {
 			venueId: venue.id,
 			personId: person.id,
 			action: 'run_sheets.sent',
-			detail: { date: show.date, queued: result.queued, unchanged: result.unchanged }
+			detail: { show: show.id, date: show.date, queued: result.queued, unchanged: result.unchanged }
 		});
 		return { queued: result.queued, unchanged: result.unchanged };
 	},

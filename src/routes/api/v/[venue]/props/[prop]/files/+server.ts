@@ -39,7 +39,7 @@ export const POST: RequestHandler = async (event) => {
 		venueId: venue.id,
 		personId: event.locals.person!.id,
 		action: 'prop.file_uploaded',
-		detail: { file: result.file.filename }
+		detail: { file: result.file.filename, propId: event.params.prop }
 	});
 	const { objectKey: _key, ...file } = result.file;
 	return json({ file }, { status: 201 });
