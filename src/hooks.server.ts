@@ -1,3 +1,4 @@
+import '$lib/schemas/messages';
 import type { Handle, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { building } from '$app/environment';

@@ -25,13 +25,79 @@ export function failed<T>(issues: InputIssue[]): Result<T> {
 	return { ok: false, issues };
 }
 
+/** What each input is called on the page, so a message never shows an internal name. */
+const FIELD_WORDS: Record<string, string> = {
+	bits: 'Resolution (bits)',
+	capacitanceF: 'Capacitance',
+	clockHz: 'Clock',
+	coilOhm: 'Coil resistance',
+	coilV: 'Coil voltage',
+	colour: 'Colour',
+	contactRatingA: 'Contact current rating',
+	contactRatingV: 'Contact voltage rating',
+	continuousDrainA: 'Switch drain rating',
+	currentA: 'Current',
+	dielectricEpsR: 'Dielectric constant',
+	drainCurrentA: 'Drain current',
+	finalV: 'Final voltage',
+	forwardRangeV: 'Forward-voltage spread',
+	forwardV: 'Forward voltage',
+	gapM: 'Gap',
+	gateThresholdMaxV: 'Gate threshold (max)',
+	handEpsR: 'Hand dielectric constant',
+	handFraction: 'Hand fills',
+	ledsInSeries: 'LEDs in series',
+	loadCurrentA: 'Load current',
+	loadSupply: 'Load supply',
+	loadV: 'Load voltage',
+	logicHighV: 'Logic high',
+	maxPowerW: 'Power rating',
+	maxStepPercent: 'Largest step',
+	maxTop: 'Largest timer top',
+	minOffS: 'Minimum off time',
+	minOnS: 'Minimum on time',
+	mode: 'Mode',
+	offS: 'Gap between pulses',
+	ohms: 'Resistance',
+	onS: 'Pulse on time',
+	pinLimitA: 'Pin current limit',
+	prescaler: 'Prescaler',
+	rdsOnDriveV: 'Gate drive for on-resistance',
+	rdsOnOhm: 'On-resistance',
+	readingNoiseCounts: 'Noise per reading',
+	referenceV: 'Comparator reference',
+	resistanceOhm: 'Resistor',
+	sampleOverheadS: 'Time between readings',
+	samplesAveraged: 'Readings averaged',
+	series: 'Series',
+	startV: 'Starting voltage',
+	strayCapacitanceF: 'Stray capacitance',
+	strings: 'Strings in parallel',
+	supplyV: 'Supply voltage',
+	switchDropV: 'Switch drop',
+	targetHz: 'Target frequency',
+	targetV: 'Target voltage',
+	timeS: 'Time',
+	timerBits: 'Timer bits',
+	timerClockHz: 'Timer clock',
+	top: 'Timer top'
+};
+
+/** The words for an input: from the table, else its name split into words. */
+export function fieldWords(field: string): string {
+	const known = FIELD_WORDS[field];
+	if (known) return known;
+	const words = field.replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase();
+	return words.charAt(0).toUpperCase() + words.slice(1);
+}
+
 /** Collects input issues so a form can show every problem at once rather than the first. */
 export class InputChecker {
 	readonly issues: InputIssue[] = [];
 
 	private isNumber(field: string, value: unknown): value is number {
 		if (typeof value !== 'number' || !Number.isFinite(value)) {
-			this.issues.push({ field, message: `${field} must be a finite number` });
+			this.issues.push({ field, message: `${fieldWords(field)} must be a number.` });
 			return false;
 		}
 		return true;
@@ -43,33 +109,33 @@ export class InputChecker {
 
 	positive(field: string, value: unknown): void {
 		if (this.isNumber(field, value) && value <= 0) {
-			this.issues.push({ field, message: `${field} must be greater than zero` });
+			this.issues.push({ field, message: `${fieldWords(field)} must be above zero.` });
 		}
 	}
 
 	nonNegative(field: string, value: unknown): void {
 		if (this.isNumber(field, value) && value < 0) {
-			this.issues.push({ field, message: `${field} must not be negative` });
+			this.issues.push({ field, message: `${fieldWords(field)} cannot be below zero.` });
 		}
 	}
 
 	atLeast(field: string, value: unknown, min: number): void {
 		if (this.isNumber(field, value) && value < min) {
-			this.issues.push({ field, message: `${field} must be at least ${min}` });
+			this.issues.push({ field, message: `${fieldWords(field)} must be at least ${fmt(min)}.` });
 		}
 	}
 
 	between(field: string, value: unknown, min: number, max: number): void {
 		if (this.isNumber(field, value) && (value < min || value > max)) {
-			this.issues.push({ field, message: `${field} must be between ${min} and ${max}` });
+			this.issues.push({ field, message: `${fieldWords(field)} must be from ${fmt(min)} to ${fmt(max)}.` });
 		}
 	}
 
 	integer(field: string, value: unknown, min: number, max = Number.MAX_SAFE_INTEGER): void {
 		if (!this.isNumber(field, value)) return;
 		if (!Number.isInteger(value) || value < min || value > max) {
-			const range = max === Number.MAX_SAFE_INTEGER ? `${min} or more` : `${min} to ${max}`;
-			this.issues.push({ field, message: `${field} must be a whole number, ${range}` });
+			const range = max === Number.MAX_SAFE_INTEGER ? `${fmt(min)} or more` : `${fmt(min)} to ${fmt(max)}`;
+			this.issues.push({ field, message: `${fieldWords(field)} must be a whole number, ${range}.` });
 		}
 	}
 

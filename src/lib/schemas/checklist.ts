@@ -30,8 +30,8 @@ export const resultSchema = z.object({
 	/** The id the photo upload answered with; the server looks up its stored key. */
 	photoId: z.uuid({ error: 'Upload the photo again.' }).optional().nullable(),
 	/** When the phone recorded it (ISO 8601 with offset); judged against the server's clock. */
-	recordedAt: z
-		.iso.datetime({ offset: true, error: 'Send the recorded time as an ISO 8601 date and time.' })
+	recordedAt: z.iso
+		.datetime({ offset: true, error: 'Send the recorded time as an ISO 8601 date and time.' })
 		.optional()
 		.nullable()
 });

@@ -1,32 +1,69 @@
 import { z } from 'zod';
+import './messages';
 
-const blank = (v: unknown) => (v === '' || v === null ? undefined : v);
+import { formatQuantity, readField, type QuantityKind } from '$lib/quantity';
 
-/** A number from a form field or JSON, with a message written for people. */
-export function num(
-	label: string,
-	opts: { min?: number; max?: number; int?: boolean; gt?: number } = {}
-) {
-	let n = z.coerce.number({ error: `${label} must be a number.` }).refine(Number.isFinite, {
-		message: `${label} must be a number.`
-	});
-	if (opts.int) n = n.refine(Number.isInteger, { message: `${label} must be a whole number.` });
-	if (opts.gt !== undefined)
-		n = n.refine((v) => v > opts.gt!, { message: `${label} must be above ${opts.gt}.` });
-	if (opts.min !== undefined)
-		n = n.refine((v) => v >= opts.min!, { message: `${label} must be at least ${opts.min}.` });
-	if (opts.max !== undefined)
-		n = n.refine((v) => v <= opts.max!, { message: `${label} must be at most ${opts.max}.` });
-	return z.preprocess(
-		blank,
-		z.union([z.undefined(), n]).refine((v) => v !== undefined, {
-			message: `Give ${label.toLowerCase()}.`
-		})
-	) as unknown as z.ZodType<number, unknown>;
+const blank = (v: unknown) =>
+	v === '' || v === null || (typeof v === 'string' && v.trim() === '') ? undefined : v;
+
+export interface NumOpts {
+	min?: number;
+	max?: number;
+	int?: boolean;
+	gt?: number;
+	/** What the field holds, so "4K7", "330k" or "20 mA" are read the way the trade writes them. */
+	kind?: QuantityKind;
+	/** The field's unit as a fraction of the kind's SI unit: 1e-3 for a field kept in mA or ms. */
+	scale?: number;
+}
+
+/** A bound written in the field's own unit, for a message: "100 %", "4.7 kΩ", "3,600". */
+function bound(v: number, opts: NumOpts): string {
+	const kind = opts.kind ?? 'plain';
+	if (kind === 'percent' || kind === 'plain' || kind === 'count')
+		return formatQuantity(v, kind === 'count' ? 'plain' : kind, { digits: 6 });
+	return formatQuantity(v * (opts.scale ?? 1), kind, { digits: 6 });
+}
+
+/**
+ * A number from a form field or JSON, with messages written for people. Text is read with the
+ * shared quantity reader (SI prefixes and the IEC 60062 code where the kind allows them); what
+ * is out of range is refused with the range, never clamped.
+ */
+export function num(label: string, opts: NumOpts = {}) {
+	return z.unknown().transform((raw, ctx) => {
+		const v = blank(raw);
+		const fail = (message: string) => {
+			ctx.addIssue({ code: 'custom', message, input: raw });
+			return z.NEVER;
+		};
+		if (v === undefined) return fail(`Give ${label.toLowerCase()}.`);
+		let n: number;
+		if (typeof v === 'number') n = v;
+		else if (typeof v === 'string') {
+			const r = readField(v, opts.kind ?? 'plain', opts.scale ?? 1);
+			if (!r.ok) return fail(`${label}: ${r.message}`);
+			n = r.value;
+		} else return fail(`${label} must be a number.`);
+		if (!Number.isFinite(n)) return fail(`${label} must be a number.`);
+		if (opts.int && !Number.isInteger(n)) return fail(`${label} must be a whole number.`);
+		if (opts.gt !== undefined && !(n > opts.gt))
+			return fail(`${label} must be above ${bound(opts.gt, opts)}.`);
+		const outside =
+			(opts.min !== undefined && n < opts.min) || (opts.max !== undefined && n > opts.max);
+		if (outside) {
+			if (opts.min !== undefined && opts.max !== undefined)
+				return fail(`${label} must be from ${bound(opts.min, opts)} to ${bound(opts.max, opts)}.`);
+			if (opts.min !== undefined)
+				return fail(`${label} must be at least ${bound(opts.min, opts)}.`);
+			return fail(`${label} must be at most ${bound(opts.max!, opts)}.`);
+		}
+		return n;
+	}) as unknown as z.ZodType<number, unknown>;
 }
 
 /** An optional number: blank means none (null). */
-export function optNum(label: string, opts: Parameters<typeof num>[1] = {}) {
+export function optNum(label: string, opts: NumOpts = {}) {
 	return z
 		.preprocess(blank, z.union([z.undefined(), num(label, opts)]))
 		.transform((v) => (v === undefined ? null : v)) as unknown as z.ZodType<number | null, unknown>;

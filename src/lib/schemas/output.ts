@@ -16,33 +16,33 @@ const LED_COLOUR_VALUES = [
 export const ledStringSettings = z.object({
 	kind: z.literal('led_string'),
 	colour: z.enum(LED_COLOUR_VALUES, { error: 'Choose a colour.' }),
-	forwardV: num('Forward voltage', { gt: 0, max: 10 }),
+	forwardV: num('Forward voltage', { kind: 'volts', gt: 0, max: 10 }),
 	ledsInSeries: num('LEDs in series', { int: true, min: 1, max: 100 }),
 	strings: num('Strings in parallel', { int: true, min: 1, max: 1000 }),
-	currentMa: num('Current per string', { gt: 0, max: 5000 }),
-	supplyV: num('String supply', { gt: 0, max: 60 }),
-	switchDropV: num('Switch drop', { min: 0, max: 10 }),
-	logicHighV: num('Logic high', { gt: 0, max: 20 }),
-	gateThresholdMaxV: num('Gate threshold (max)', { gt: 0, max: 20 }),
-	continuousDrainMa: num('Switch drain rating', { gt: 0, max: 1e6 })
+	currentMa: num('Current per string', { kind: 'amps', scale: 1e-3, gt: 0, max: 5000 }),
+	supplyV: num('String supply', { kind: 'volts', gt: 0, max: 60 }),
+	switchDropV: num('Switch drop', { kind: 'volts', min: 0, max: 10 }),
+	logicHighV: num('Logic high', { kind: 'volts', gt: 0, max: 20 }),
+	gateThresholdMaxV: num('Gate threshold (max)', { kind: 'volts', gt: 0, max: 20 }),
+	continuousDrainMa: num('Switch drain rating', { kind: 'amps', scale: 1e-3, gt: 0, max: 1e6 })
 });
 
 export const relaySettings = z.object({
 	kind: z.literal('relay'),
 	relayKind: z.enum(RELAY_KINDS, { error: 'Choose what the relay drives.' }),
-	coilV: num('Coil voltage', { gt: 0, max: 60 }),
-	coilOhm: num('Coil resistance', { gt: 0, max: 1e6 }),
+	coilV: num('Coil voltage', { kind: 'volts', gt: 0, max: 60 }),
+	coilOhm: num('Coil resistance', { kind: 'ohms', gt: 0, max: 1e6 }),
 	loadSupply: z.enum(['ac', 'dc'], { error: 'Choose AC or DC.' }),
-	loadV: num('Load voltage', { gt: 0, max: 1000 }),
-	loadCurrentA: num('Load current', { gt: 0, max: 100 }),
-	contactRatingA: num('Contact current rating', { gt: 0, max: 100 }),
-	contactRatingV: num('Contact voltage rating', { gt: 0, max: 1000 }),
-	onMs: optNum('Pulse on time', { gt: 0, max: 3600000 }),
-	minOnMs: optNum('Minimum on time', { min: 0, max: 3600000 }),
-	offMs: optNum('Gap between pulses', { gt: 0, max: 3600000 }),
-	minOffMs: optNum('Minimum off time', { min: 0, max: 3600000 }),
+	loadV: num('Load voltage', { kind: 'volts', gt: 0, max: 1000 }),
+	loadCurrentA: num('Load current', { kind: 'amps', gt: 0, max: 100 }),
+	contactRatingA: num('Contact current rating', { kind: 'amps', gt: 0, max: 100 }),
+	contactRatingV: num('Contact voltage rating', { kind: 'volts', gt: 0, max: 1000 }),
+	onMs: optNum('Pulse on time', { kind: 'seconds', scale: 1e-3, gt: 0, max: 3600000 }),
+	minOnMs: optNum('Minimum on time', { kind: 'seconds', scale: 1e-3, min: 0, max: 3600000 }),
+	offMs: optNum('Gap between pulses', { kind: 'seconds', scale: 1e-3, gt: 0, max: 3600000 }),
+	minOffMs: optNum('Minimum off time', { kind: 'seconds', scale: 1e-3, min: 0, max: 3600000 }),
 	/** Highest share of time the load may be on (fog heaters, solenoid coils); blank when unrated. */
-	maxDutyPercent: optNum('Duty rating', { gt: 0, max: 100 }).optional()
+	maxDutyPercent: optNum('Duty rating', { kind: 'percent', gt: 0, max: 100 }).optional()
 });
 
 export const outputSettingsSchema = z.discriminatedUnion(

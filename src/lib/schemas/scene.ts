@@ -10,13 +10,10 @@ const optId = (message: string) =>
 
 const HOUR_MS = 3_600_000;
 // A checkbox after a hidden 'false' field sends both values; the last one counts.
-const bool = z.preprocess(
-	(v) => {
-		const last = Array.isArray(v) ? v.at(-1) : v;
-		return last === true || last === 'on' || last === 'true';
-	},
-	z.boolean()
-) as unknown as z.ZodType<boolean, unknown>;
+const bool = z.preprocess((v) => {
+	const last = Array.isArray(v) ? v.at(-1) : v;
+	return last === true || last === 'on' || last === 'true';
+}, z.boolean()) as unknown as z.ZodType<boolean, unknown>;
 
 function withTriggerRules<
 	T extends z.ZodType<{ trigger: string; triggerSensorId: string | null; loopMs: number | null }>
@@ -56,9 +53,9 @@ export type SceneDetails = z.infer<typeof sceneDetailsSchema>;
 export const sceneFormSchema = z
 	.object({
 		...base,
-		loopS: optNum('Loop time', { gt: 0, max: 3600 }),
-		lengthS: num('Length', { gt: 0, max: 3600 }),
-		rearmS: num('Re-arm time', { min: 0, max: 3600 })
+		loopS: optNum('Loop time', { kind: 'seconds', gt: 0, max: 3600 }),
+		lengthS: num('Length', { kind: 'seconds', gt: 0, max: 3600 }),
+		rearmS: num('Re-arm time', { kind: 'seconds', min: 0, max: 3600 })
 	})
 	.transform(({ loopS, lengthS, rearmS, ...rest }) => ({
 		...rest,

@@ -3,17 +3,17 @@ import { num, optNum, text } from './num';
 
 export const capacitiveSettings = z.object({
 	kind: z.literal('capacitive'),
-	resistanceOhm: num('Resistor', { gt: 0, max: 1e9 }),
+	resistanceOhm: num('Resistor', { kind: 'ohms', gt: 0, max: 1e9 }),
 	plateAreaCm2: num('Plate area', { gt: 0, max: 1e5 }),
 	gapMm: num('Gap', { gt: 0, max: 1000 }),
-	strayPf: num('Stray capacitance', { min: 0, max: 1e5 }),
+	strayPf: num('Stray capacitance', { kind: 'farads', scale: 1e-12, min: 0, max: 1e5 }),
 	samplesAveraged: num('Readings averaged', { int: true, min: 1, max: 4096 }),
 	readingNoiseCounts: num('Noise per reading', { min: 0, max: 1e6 }),
 	handFraction: num('Hand fills', { min: 0, max: 1 })
 });
 export const motionSettings = z.object({
 	kind: z.literal('motion'),
-	warmUpS: num('Warm-up', { min: 0, max: 600 }),
+	warmUpS: num('Warm-up', { kind: 'seconds', min: 0, max: 600 }),
 	rangeM: num('Range', { gt: 0, max: 100 })
 });
 export const breakBeamSettings = z.object({

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '$lib/schemas/messages';
 
 /** Parse a form with a zod schema; errors come back per field, in words meant for people. */
 export async function parseForm<T extends z.ZodType>(request: Request, schema: T) {
