@@ -34,8 +34,23 @@ test('a designer builds a scene that brightens LEDs with hand depth, and a 4 Hz 
 	await expect.poll(brightness).toBeGreaterThan(dim + 100);
 	await expect(page.getByTestId('preview-numbers').first()).toContainText('level 90.0 %');
 
+	// Typing 1-5-0 keeps every keystroke, says 150 % is out of range, and saving is refused
+	// rather than keeping 15 or the old value silently.
+	const high = page.getByLabel('High level (%)');
+	await high.fill('');
+	await high.pressSequentially('150');
+	await expect(high).toHaveValue('150');
+	await expect(
+		page.getByText('150 % is outside the range: use from 0 % to 100 %. Not kept.')
+	).toBeVisible();
+	await page.getByRole('button', { name: 'Save scene' }).click();
+	await expect(
+		page.getByRole('alert').filter({ hasText: 'Not saved: fix these values first.' })
+	).toContainText('High level (%): 150 % is outside the range');
+	await expect(page.getByText('Saved.')).toHaveCount(0);
+
 	// Save a change, reload: still there, and the history says what changed.
-	await page.getByLabel('High level (%)').fill('80');
+	await high.fill('80');
 	await page.getByRole('button', { name: 'Save scene' }).click();
 	await expect(page.getByText('Saved.')).toBeVisible();
 	await page.reload();
