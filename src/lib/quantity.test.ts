@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { formatQuantity, meaning, parseQuantity, readField, type QuantityKind } from './quantity';
+import {
+	fieldMeaning,
+	fieldNumber,
+	formatQuantity,
+	meaning,
+	parseQuantity,
+	readField,
+	type QuantityKind
+} from './quantity';
 
 const read = (text: string, kind: QuantityKind) => {
 	const r = parseQuantity(text, kind);
@@ -159,5 +167,18 @@ describe('readField', () => {
 		expect(readField('0.02 A', 'amps', 1e-3)).toEqual({ ok: true, value: 20, explicit: true });
 		expect(readField('2n2', 'farads', 1e-12)).toEqual({ ok: true, value: 2200, explicit: true });
 		expect(readField('300 ms', 'seconds', 1e-3)).toEqual({ ok: true, value: 300, explicit: true });
+	});
+});
+
+describe('fieldNumber and fieldMeaning', () => {
+	it('read a labelled field as its schema does and say what the typing means', () => {
+		expect(fieldNumber('4M7', 'Ω')).toBe(4_700_000);
+		expect(fieldNumber('2n2', 'pF')).toBe(2200);
+		expect(fieldNumber('20', 'mA')).toBe(20);
+		expect(fieldNumber('4,7', 'Ω')).toBeNaN();
+		expect(fieldMeaning('4M7', 'Ω')).toBe('4.7 MΩ');
+		expect(fieldMeaning('0.02 A', 'mA')).toBe('20 mA');
+		expect(fieldMeaning('20', 'mA')).toBeNull();
+		expect(fieldMeaning('4.7 MΩ', 'Ω')).toBeNull();
 	});
 });

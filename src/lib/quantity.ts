@@ -284,3 +284,55 @@ export function readField(input: string, kind: QuantityKind, scale = 1): Quantit
 	if (!r.ok || !r.explicit || scale === 1) return r;
 	return { ok: true, value: Number((r.value / scale).toPrecision(15)), explicit: true };
 }
+
+/** A plain figure for people, to `digits` significant digits, grouped: 827.4853 → "827.5". */
+export function figure(value: number | null | undefined, digits = 4): string {
+	return formatQuantity(value, 'plain', { digits });
+}
+
+/** How to read a field from the unit it is labelled with: 'mA' is a current kept in milliamps. */
+export function unitKind(unit: string | undefined): { kind: QuantityKind; scale: number } {
+	switch (unit) {
+		case 'Ω':
+			return { kind: 'ohms', scale: 1 };
+		case 'pF':
+			return { kind: 'farads', scale: 1e-12 };
+		case 'A':
+			return { kind: 'amps', scale: 1 };
+		case 'mA':
+			return { kind: 'amps', scale: 1e-3 };
+		case 'V':
+			return { kind: 'volts', scale: 1 };
+		case 'Hz':
+			return { kind: 'hertz', scale: 1 };
+		case 's':
+			return { kind: 'seconds', scale: 1 };
+		case 'ms':
+			return { kind: 'seconds', scale: 1e-3 };
+		case '%':
+			return { kind: 'percent', scale: 1 };
+		default:
+			return { kind: 'plain', scale: 1 };
+	}
+}
+
+/**
+ * A field's typing as the number the server will store, for live maths on the page: the same
+ * reading the form's schema does, so what is previewed is what is saved. NaN when unreadable.
+ */
+export function fieldNumber(text: string | undefined, unit: string | undefined): number {
+	if (text === undefined || text.trim() === '') return NaN;
+	const { kind, scale } = unitKind(unit);
+	const r = readField(text, kind, scale);
+	return r.ok ? r.value : NaN;
+}
+
+/** What a field's typing means in the field's own unit, when that is not already plain. */
+export function fieldMeaning(text: string | undefined, unit: string | undefined): string | null {
+	if (!text) return null;
+	const { kind, scale } = unitKind(unit);
+	const r = readField(text, kind, scale);
+	if (!r.ok || !r.explicit) return null;
+	const words = formatQuantity(r.value * scale, kind, { digits: 4 });
+	return words.replace(/\s/g, '') === text.replace(/\s/g, '') ? null : words;
+}

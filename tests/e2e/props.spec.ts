@@ -43,6 +43,19 @@ test('a designer registers a capacitive prop with an LED string, calibrates it a
 	await page.getByLabel('Gap to the hand').fill('5');
 	await expect(plate).not.toHaveText(before!);
 	await expect(page.getByText('Estimate:')).toBeVisible();
+	// The resistor can be typed the way the trade writes it (IEC 60062: 4M7 = 4.7 MΩ).
+	// The discharge time is RC·ln(V0/Vref), linear in R: 4.7 times the default 1 MΩ figure.
+	const discharge = page.getByTestId('discharge-us');
+	const micros = async () => Number((await discharge.textContent())!.replace(/[^\d.]/g, ''));
+	const at1M = await micros();
+	await page.getByLabel('Discharge resistor').fill('4M7');
+	await expect(page.getByText('= 4.7 MΩ')).toBeVisible();
+	await expect(page.getByText(/must be a number|Invalid input/)).toHaveCount(0);
+	await expect.poll(async () => (await micros()) / at1M).toBeCloseTo(4.7, 2);
+	await page.getByLabel('Discharge resistor').fill('4,7M');
+	await page.getByRole('button', { name: 'Add sensor' }).click();
+	await expect(page.getByText('Use a point for decimals (4.7, not 4,7).')).toBeVisible();
+	await page.getByLabel('Discharge resistor').fill('4M7');
 	await page.getByRole('button', { name: 'Add sensor' }).click();
 	await expect(page.getByRole('link', { name: 'Perch plate' })).toBeVisible();
 

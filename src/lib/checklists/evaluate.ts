@@ -1,3 +1,4 @@
+import { figure } from '../quantity';
 /** What a sensor test reads against: the thresholds stored when a capture's calibration was applied. */
 export interface ReadingBand {
 	/** 'up' when a present reading is higher than idle. */
@@ -18,8 +19,9 @@ export interface SensorTestVerdict {
 	reasons: string[];
 }
 
+/** Readings to five significant figures, grouped: enough to tell a reading from a band's edge. */
 function fmt(n: number): string {
-	return Number(n.toPrecision(6)).toString();
+	return figure(n, 5);
 }
 
 /** The idle reading sits inside the baseline band (ends included). */

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import './messages';
 
-import { formatQuantity, readField, type QuantityKind } from '$lib/quantity';
+import { formatQuantity, readField, type QuantityKind } from '../quantity';
 
 const blank = (v: unknown) =>
 	v === '' || v === null || (typeof v === 'string' && v.trim() === '') ? undefined : v;

@@ -109,10 +109,13 @@ export const actions: Actions = {
 				action: 'apply',
 				message: 'That capture has no calibration: it needs both idle and present readings.'
 			});
+		// The trigger range is a setting people read and edit, so it takes the suggestion to four
+		// significant figures (well inside a reading's noise); the calibration keeps full precision.
+		const setting = (v: number) => Number(v.toPrecision(4));
 		const range = {
-			near: cal.depth.near,
-			far: cal.depth.far,
-			hysteresis: Math.abs(cal.enter - cal.exit)
+			near: setting(cal.depth.near),
+			far: setting(cal.depth.far),
+			hysteresis: setting(Math.abs(cal.enter - cal.exit))
 		};
 		const calibration: SensorCalibration = {
 			direction: cal.direction,
