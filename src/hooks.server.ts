@@ -13,6 +13,7 @@ import { env } from '$env/dynamic/private';
 import { objectStore } from '$lib/server/objects';
 import { startObjectCleanup, stopObjectCleanup } from '$lib/server/object-cleanup';
 import { guardHandle } from '$lib/server/hooks/guard';
+import { inputHandle } from '$lib/server/hooks/input';
 import { personHandle } from '$lib/server/hooks/person';
 import { themeHandle } from '$lib/server/hooks/theme';
 import { venueHandle } from '$lib/server/hooks/venue';
@@ -40,6 +41,7 @@ export const handle: Handle = sequence(
 	authHandle,
 	personHandle,
 	themeHandle,
+	inputHandle,
 	venueHandle,
 	guardHandle
 );
