@@ -5,7 +5,8 @@
  * stored, so the person gets a message beside the field instead of a server error.
  */
 
-// NUL (matching it is the point, so the control-character rule is off here), a high surrogate not followed by a low one, or a low surrogate not preceded by a high one.
+// NUL (matching it is the point, so the control-character rule is off here), a high surrogate
+// not followed by a low one, or a low surrogate not preceded by a high one.
 // eslint-disable-next-line no-control-regex
 const UNSTORABLE = /\u0000|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 
