@@ -12,6 +12,7 @@ import { startRunSheetSweep } from '$lib/server/runsheets/timer';
 import { env } from '$env/dynamic/private';
 import { objectStore } from '$lib/server/objects';
 import { startObjectCleanup, stopObjectCleanup } from '$lib/server/object-cleanup';
+import { handleError } from '$lib/server/hooks/errors';
 import { guardHandle } from '$lib/server/hooks/guard';
 import { inputHandle } from '$lib/server/hooks/input';
 import { personHandle } from '$lib/server/hooks/person';
@@ -36,6 +37,9 @@ export const init: ServerInit = async () => {
 		void stopMailQueue().finally(() => closeDb());
 	});
 };
+
+/** Unexpected errors: logged with a short reference, answered in plain words. */
+export { handleError };
 
 export const handle: Handle = sequence(
 	authHandle,
