@@ -103,7 +103,11 @@ describe('text that cannot be stored', () => {
 		const run = (params: Record<string, string>, path: string) =>
 			(async () =>
 				inputHandle({
-					event: { params, url: new URL(path, 'http://127.0.0.1') },
+					event: {
+						params,
+						url: new URL(path, 'http://127.0.0.1'),
+						request: new Request('http://127.0.0.1')
+					},
 					resolve
 				} as never))().then(
 				(r) => (r as Response).status,
