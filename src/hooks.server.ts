@@ -12,7 +12,9 @@ import { startRunSheetSweep } from '$lib/server/runsheets/timer';
 import { env } from '$env/dynamic/private';
 import { objectStore } from '$lib/server/objects';
 import { startObjectCleanup, stopObjectCleanup } from '$lib/server/object-cleanup';
+import { handleError } from '$lib/server/hooks/errors';
 import { guardHandle } from '$lib/server/hooks/guard';
+import { inputHandle } from '$lib/server/hooks/input';
 import { personHandle } from '$lib/server/hooks/person';
 import { themeHandle } from '$lib/server/hooks/theme';
 import { venueHandle } from '$lib/server/hooks/venue';
@@ -36,10 +38,14 @@ export const init: ServerInit = async () => {
 	});
 };
 
+/** Unexpected errors: logged with a short reference, answered in plain words. */
+export { handleError };
+
 export const handle: Handle = sequence(
 	authHandle,
 	personHandle,
 	themeHandle,
+	inputHandle,
 	venueHandle,
 	guardHandle
 );

@@ -13,9 +13,9 @@ vi.mock('$env/dynamic/private', () => ({ env: process.env }));
 useTestEnv();
 const db = testDb();
 const list = await import('../../src/routes/api/v/[venue]/props/+server');
-const one = await import('../../src/routes/api/v/[venue]/props/[prop]/+server');
-const sensorsApi = await import('../../src/routes/api/v/[venue]/props/[prop]/sensors/+server');
-const filesApi = await import('../../src/routes/api/v/[venue]/props/[prop]/files/+server');
+const one = await import('../../src/routes/api/v/[venue]/props/[prop=uuid]/+server');
+const sensorsApi = await import('../../src/routes/api/v/[venue]/props/[prop=uuid]/sensors/+server');
+const filesApi = await import('../../src/routes/api/v/[venue]/props/[prop=uuid]/files/+server');
 const calendarApi = await import('../../src/routes/api/v/[venue]/calendar/+server');
 const controllersPage = await import('../../src/routes/(app)/v/[venue]/controllers/+page.server');
 

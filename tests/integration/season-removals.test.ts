@@ -10,7 +10,7 @@ import { asSession, callAction, useTestEnv } from './routes';
 vi.mock('$env/dynamic/private', () => ({ env: process.env }));
 useTestEnv();
 const db = testDb();
-const page = await import('../../src/routes/(app)/v/[venue]/seasons/[season]/+page.server');
+const page = await import('../../src/routes/(app)/v/[venue]/seasons/[season=uuid]/+page.server');
 
 // The same season on Saturdays only: the five Fridays leave it.
 const saturdaysOnly = {

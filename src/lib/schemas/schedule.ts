@@ -182,7 +182,7 @@ export const showStatusSchema = z.object({
 
 export const assignSchema = z.object({
 	positionId: z.uuid('Pick a position.'),
-	personId: z.string({ error: 'Pick a crew member.' }).min(1, 'Pick a crew member.').max(200),
+	personId: z.uuid('Pick a crew member.'),
 	call: z
 		.string()
 		.trim()

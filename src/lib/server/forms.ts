@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import '$lib/schemas/messages';
+import { unstorableErrors } from './text';
 
 /** Parse a form with a zod schema; errors come back per field, in words meant for people. */
 export async function parseForm<T extends z.ZodType>(request: Request, schema: T) {
@@ -9,6 +10,8 @@ export async function parseForm<T extends z.ZodType>(request: Request, schema: T
 		const all = form.getAll(key);
 		raw[key] = all.length > 1 ? all : all[0];
 	}
+	const unstorable = unstorableErrors(raw, 1);
+	if (unstorable) return { ok: false as const, errors: unstorable, raw };
 	const result = schema.safeParse(raw);
 	if (result.success) return { ok: true as const, data: result.data as z.infer<T>, raw };
 	const errors = z.flattenError(result.error).fieldErrors as Record<string, string[]>;

@@ -55,6 +55,17 @@ export class ObjectStore {
 		return { body: res.Body as Readable, size: res.ContentLength };
 	}
 
+	/** The object, or null when the store has nothing under the key (never stored, or removed). */
+	async find(key: string): Promise<{ body: Readable; size: number | undefined } | null> {
+		try {
+			return await this.get(key);
+		} catch (e) {
+			const err = e as { name?: string; $metadata?: { httpStatusCode?: number } };
+			if (err.name === 'NoSuchKey' || err.$metadata?.httpStatusCode === 404) return null;
+			throw e;
+		}
+	}
+
 	async exists(key: string): Promise<boolean> {
 		try {
 			await this.client.send(new HeadObjectCommand({ Bucket: this.bucket, Key: key }));

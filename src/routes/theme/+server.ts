@@ -13,7 +13,8 @@ export const POST: RequestHandler = async ({ request, cookies, url }) => {
 		secure: url.protocol === 'https:',
 		maxAge: 60 * 60 * 24 * 365
 	});
-	const back = request.headers.get('referer');
-	const target = back && new URL(back).origin === url.origin ? new URL(back).pathname : '/';
+	// Back to the page the person was on, when the Referer is a well-formed address on this site.
+	const back = URL.parse(request.headers.get('referer') ?? '');
+	const target = back && back.origin === url.origin ? back.pathname : '/';
 	redirect(303, target);
 };

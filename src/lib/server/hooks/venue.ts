@@ -2,12 +2,13 @@ import type { Handle } from '@sveltejs/kit';
 import { and, eq } from 'drizzle-orm';
 import { db } from '../db';
 import { memberships, venues } from '../db/schema';
+import { isUnstorable } from '../text';
 
 /** For routes with a [venue] parameter, load the venue and the person's membership in it. */
 export const venueHandle: Handle = async ({ event, resolve }) => {
 	event.locals.venue = null;
 	const slug = event.params.venue;
-	if (slug && event.locals.person) {
+	if (slug && event.locals.person && !isUnstorable(slug)) {
 		const [row] = await db
 			.select({
 				id: venues.id,

@@ -1,6 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { errorsByPath } from './form';
+import { unstorableErrors } from '../text';
 
 /** Read and check a JSON body; a bad one is a 400 with the problems by field, never a 500. */
 export async function readJson<T extends z.ZodType>(request: Request, schema: T) {
@@ -18,6 +19,12 @@ export async function readJson<T extends z.ZodType>(request: Request, schema: T)
 				{ message: 'Send a JSON object with the fields by name, like {"name": "…"}.' },
 				{ status: 400 }
 			)
+		};
+	const unstorable = unstorableErrors(body);
+	if (unstorable)
+		return {
+			ok: false as const,
+			response: json({ message: 'Some fields need fixing.', errors: unstorable }, { status: 400 })
 		};
 	const result = schema.safeParse(body);
 	if (!result.success)

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { unstorableErrors } from '../text';
 
 /** Form fields named a.b become nested objects, so one schema checks forms and JSON alike. */
 export function nest(raw: Record<string, unknown>) {
@@ -35,6 +36,8 @@ export async function readForm(request: Request) {
 /** Parse a form whose field names are dotted paths with a nested schema. */
 export async function parseNestedForm<T extends z.ZodType>(request: Request, schema: T) {
 	const raw = await readForm(request);
+	const unstorable = unstorableErrors(raw, 1);
+	if (unstorable) return { ok: false as const, errors: unstorable, raw };
 	const result = schema.safeParse(nest(raw));
 	if (result.success) return { ok: true as const, data: result.data as z.infer<T>, raw };
 	return { ok: false as const, errors: errorsByPath(result.error), raw };

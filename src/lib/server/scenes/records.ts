@@ -14,6 +14,7 @@ import {
 	venues
 } from '$lib/server/db/schema';
 import { audit } from '$lib/server/audit';
+import { isUniqueViolation } from '$lib/server/db/errors';
 import {
 	analyseScene,
 	type AnalysisOutput,
@@ -316,6 +317,16 @@ function contentRows(
 
 export class NameTaken extends Error {}
 
+/** The name check and the write are separate steps: a save racing another for a name loses here. */
+async function sameNameRace<T>(write: () => Promise<T>): Promise<T> {
+	try {
+		return await write();
+	} catch (e) {
+		if (isUniqueViolation(e, 'scenes_venue_name')) throw new NameTaken();
+		throw e;
+	}
+}
+
 async function nameTaken(db: Db, venueId: string, name: string, except?: string) {
 	const rows = await db
 		.select({ id: scenes.id })
@@ -334,24 +345,26 @@ export async function createScene(
 	summary = 'Created the scene.'
 ) {
 	if (await nameTaken(db, venueId, details.name)) throw new NameTaken();
-	return db.transaction(async (tx) => {
-		const [row] = await tx
-			.insert(scenes)
-			.values({ ...details, venueId })
-			.returning();
-		const rows = contentRows(venueId, row.id, content, { cues: new Set(), responses: new Set() });
-		if (rows.cues.length) await tx.insert(sceneCues).values(rows.cues);
-		if (rows.responses.length) await tx.insert(sceneResponses).values(rows.responses);
-		await tx.insert(sceneChanges).values({
-			venueId,
-			sceneId: row.id,
-			personId,
-			summary,
-			detail: { created: true, cues: rows.cues.length, responses: rows.responses.length }
-		});
-		await audit(tx, { venueId, personId, action: 'scene.created', detail: { name: row.name } });
-		return row;
-	});
+	return sameNameRace(() =>
+		db.transaction(async (tx) => {
+			const [row] = await tx
+				.insert(scenes)
+				.values({ ...details, venueId })
+				.returning();
+			const rows = contentRows(venueId, row.id, content, { cues: new Set(), responses: new Set() });
+			if (rows.cues.length) await tx.insert(sceneCues).values(rows.cues);
+			if (rows.responses.length) await tx.insert(sceneResponses).values(rows.responses);
+			await tx.insert(sceneChanges).values({
+				venueId,
+				sceneId: row.id,
+				personId,
+				summary,
+				detail: { created: true, cues: rows.cues.length, responses: rows.responses.length }
+			});
+			await audit(tx, { venueId, personId, action: 'scene.created', detail: { name: row.name } });
+			return row;
+		})
+	);
 }
 
 /**
@@ -382,31 +395,33 @@ export async function saveScene(
 		outputName
 	);
 	if (!change.summary) return { changed: false };
-	await db.transaction(async (tx) => {
-		await tx
-			.update(scenes)
-			.set({ ...details, updatedAt: new Date() })
-			.where(and(eq(scenes.id, loaded.row.id), eq(scenes.venueId, venueId)));
-		if (content) {
-			await tx.delete(sceneCues).where(eq(sceneCues.sceneId, loaded.row.id));
-			await tx.delete(sceneResponses).where(eq(sceneResponses.sceneId, loaded.row.id));
-			if (rows.cues.length) await tx.insert(sceneCues).values(rows.cues);
-			if (rows.responses.length) await tx.insert(sceneResponses).values(rows.responses);
-		}
-		await tx.insert(sceneChanges).values({
-			venueId,
-			sceneId: loaded.row.id,
-			personId,
-			summary: change.summary,
-			detail: change.detail
-		});
-		await audit(tx, {
-			venueId,
-			personId,
-			action: 'scene.changed',
-			detail: { name: details.name, summary: change.summary }
-		});
-	});
+	await sameNameRace(() =>
+		db.transaction(async (tx) => {
+			await tx
+				.update(scenes)
+				.set({ ...details, updatedAt: new Date() })
+				.where(and(eq(scenes.id, loaded.row.id), eq(scenes.venueId, venueId)));
+			if (content) {
+				await tx.delete(sceneCues).where(eq(sceneCues.sceneId, loaded.row.id));
+				await tx.delete(sceneResponses).where(eq(sceneResponses.sceneId, loaded.row.id));
+				if (rows.cues.length) await tx.insert(sceneCues).values(rows.cues);
+				if (rows.responses.length) await tx.insert(sceneResponses).values(rows.responses);
+			}
+			await tx.insert(sceneChanges).values({
+				venueId,
+				sceneId: loaded.row.id,
+				personId,
+				summary: change.summary,
+				detail: change.detail
+			});
+			await audit(tx, {
+				venueId,
+				personId,
+				action: 'scene.changed',
+				detail: { name: details.name, summary: change.summary }
+			});
+		})
+	);
 	return { changed: true, summary: change.summary };
 }
 

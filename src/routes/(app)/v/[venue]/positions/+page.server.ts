@@ -3,7 +3,7 @@ import { and, asc, eq } from 'drizzle-orm';
 import { PLANNERS, requireRole } from '$lib/server/auth/guard';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db';
-import { isUniqueViolation } from '$lib/server/db/errors';
+import { uniqueErrors } from '$lib/server/db/errors';
 import { positions, rooms } from '$lib/server/db/schema';
 import { keep, parseForm } from '$lib/server/forms';
 import { listPositions } from '$lib/server/schedule/shows';
@@ -49,13 +49,9 @@ export const actions: Actions = {
 		try {
 			await db.insert(positions).values({ ...parsed.data, venueId: venue.id });
 		} catch (e) {
-			if (isUniqueViolation(e))
-				return fail(400, {
-					action: 'add',
-					values: keep(parsed.raw),
-					errors: { name: ['This venue already has a position with that name.'] }
-				});
-			throw e;
+			const errors = uniqueErrors(e);
+			if (!errors) throw e;
+			return fail(400, { action: 'add', values: keep(parsed.raw), errors });
 		}
 		await audit(db, {
 			venueId: venue.id,

@@ -3,7 +3,7 @@ import { and, asc, eq, max } from 'drizzle-orm';
 import { EDITORS, requireRole } from '$lib/server/auth/guard';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db';
-import { isUniqueViolation } from '$lib/server/db/errors';
+import { uniqueErrors } from '$lib/server/db/errors';
 import { rooms } from '$lib/server/db/schema';
 import { keep, parseForm } from '$lib/server/forms';
 import { roomIdSchema, roomSchema } from '$lib/schemas/room';
@@ -34,14 +34,9 @@ export const actions: Actions = {
 				.insert(rooms)
 				.values({ ...parsed.data, venueId: venue.id, position: (last?.p ?? 0) + 1 });
 		} catch (e) {
-			if (isUniqueViolation(e)) {
-				return fail(400, {
-					action: 'add',
-					values: keep(parsed.raw),
-					errors: { name: ['This venue already has a room with that name.'] }
-				});
-			}
-			throw e;
+			const errors = uniqueErrors(e);
+			if (!errors) throw e;
+			return fail(400, { action: 'add', values: keep(parsed.raw), errors });
 		}
 		await audit(db, {
 			venueId: venue.id,
@@ -71,15 +66,9 @@ export const actions: Actions = {
 			if (!done.length)
 				return fail(404, { action: 'rename', id, message: 'That room no longer exists.' });
 		} catch (e) {
-			if (isUniqueViolation(e)) {
-				return fail(400, {
-					action: 'rename',
-					id,
-					values: keep(parsed.raw),
-					errors: { name: ['This venue already has a room with that name.'] }
-				});
-			}
-			throw e;
+			const errors = uniqueErrors(e);
+			if (!errors) throw e;
+			return fail(400, { action: 'rename', id, values: keep(parsed.raw), errors });
 		}
 		await audit(db, {
 			venueId: venue.id,

@@ -2,6 +2,7 @@ import { json } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
 import { recordResult } from '$lib/server/checklists/record';
+import { unstorableErrors } from '$lib/server/text';
 import type { RequestHandler } from './$types';
 
 /**
@@ -13,6 +14,9 @@ export const POST: RequestHandler = async (event) => {
 	const body = await event.request.json().catch(() => null);
 	if (!body || typeof body !== 'object')
 		return json({ message: 'Send the result as JSON.' }, { status: 400 });
+	const unstorable = unstorableErrors(body);
+	if (unstorable)
+		return json({ message: 'Some fields need fixing.', errors: unstorable }, { status: 400 });
 	const done = await recordResult(db, {
 		venue,
 		personId: event.locals.person!.id,

@@ -30,7 +30,9 @@ export const GET: RequestHandler = async (event) => {
 	// Only a key the server made for this show is served, whatever was stored.
 	if (!row?.key || !isShowPhotoKey(row.key, venue.id, access.show.id))
 		error(404, 'There is no such photo.');
-	const { body, size } = await objectStore(env).get(row.key);
+	const found = await objectStore(env).find(row.key);
+	if (!found) error(404, 'That photo was never stored, or has been removed. Take it again.');
+	const { body, size } = found;
 	const ext = row.key.split('.').pop();
 	const type = ext === 'png' ? 'image/png' : ext === 'webp' ? 'image/webp' : 'image/jpeg';
 	return new Response(Readable.toWeb(body) as ReadableStream, {

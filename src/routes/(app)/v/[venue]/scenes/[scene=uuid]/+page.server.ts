@@ -2,6 +2,7 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { EDITORS, requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
 import { keep, parseForm } from '$lib/server/forms';
+import { unstorableErrors } from '$lib/server/text';
 import { errorsByPath } from '$lib/server/props/form';
 import { loadScene } from '$lib/server/scenes/model';
 import {
@@ -56,6 +57,8 @@ export const actions: Actions = {
 			} catch {
 				json = undefined;
 			}
+			const unstorable = unstorableErrors(json);
+			if (unstorable) return fail(400, { values, errors: {}, contentErrors: unstorable });
 			const result = sceneContentSchema.safeParse(json);
 			if (!result.success)
 				return fail(400, {

@@ -25,7 +25,9 @@ export const GET: RequestHandler = async (event) => {
 			)
 		);
 	if (!file) error(404, 'There is no such file.');
-	const { body } = await objectStore(env).get(file.objectKey);
+	const found = await objectStore(env).find(file.objectKey);
+	if (!found) error(404, 'That file is no longer stored. Upload it again.');
+	const { body } = found;
 	return new Response(Readable.toWeb(body) as ReadableStream, {
 		headers: {
 			'content-type': file.contentType,
