@@ -41,7 +41,7 @@ test('crew checking off pre-show sensor tests: readings on a phone, live progres
 
 	// The expected band sits beside the readings: an in-band idle and a present past enter pass.
 	const plate = check(crew, PLATE);
-	await expect(plate.getByText('Expected: idle 1472.5 to 1487.5')).toBeVisible();
+	await expect(plate.getByText('Expected: idle 1,472.5 to 1,487.5')).toBeVisible();
 	await readings(crew, '1480', '1552');
 	await expect(plate.getByText('✓ Passed')).toBeVisible();
 	await expect(manager.getByTestId('history')).toContainText(`pass · ${PLATE}`);
