@@ -383,9 +383,9 @@ describe('check history', () => {
 			'pass',
 			'fail'
 		]);
-		// Removing the whole show still takes its history with it.
-		await db.delete(shows).where(eq(shows.id, n.show.id));
-		expect(await db.select().from(checkResults).where(eq(checkResults.id, id))).toHaveLength(0);
+		// Nor can removing the whole show take its history with it.
+		await expect(db.delete(shows).where(eq(shows.id, n.show.id))).rejects.toThrow();
+		expect(await db.select().from(checkResults).where(eq(checkResults.id, id))).toHaveLength(1);
 	});
 });
 

@@ -1,3 +1,4 @@
+import type { MailStatus } from '$lib/mail-words';
 /** Where each person's newest run sheet for a show is, as the show page shows it. */
 export interface Delivery {
 	people: {
@@ -6,7 +7,7 @@ export interface Delivery {
 		revision: number;
 		reason: 'send' | 'auto' | 'change';
 		messageId: string | null;
-		status: 'queued' | 'sent' | 'failed';
+		status: MailStatus;
 		attempts: number;
 		lastError: string | null;
 	}[];

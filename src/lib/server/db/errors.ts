@@ -21,6 +21,14 @@ export function isForeignKeyViolation(e: unknown): boolean {
 }
 
 /**
+ * True when PostgreSQL refused a change that would take kept history with it (SQLSTATE 23001,
+ * raised by the append-only trigger on check results, sign-offs and stand-downs).
+ */
+export function isRestrictViolation(e: unknown): boolean {
+	return pgError(e)?.code === '23001';
+}
+
+/**
  * What to tell people when two saves race for one name: the unique constraints a person can hit
  * by typing, with the field the message belongs beside.
  */

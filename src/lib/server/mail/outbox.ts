@@ -140,6 +140,7 @@ export async function deliverMail(
 				status: 'sent',
 				attempts: m.attempts + 1,
 				sentAt: new Date(),
+				lastError: null,
 				...(clear ? { html: null, text: null } : {})
 			})
 			.where(eq(mailMessages.id, m.id));

@@ -184,6 +184,14 @@ export async function buildShowRunSheets(
 			})
 			.from(assignments)
 			.innerJoin(users, eq(users.id, assignments.personId))
+			// Only people who belong to the venue today get a run sheet.
+			.innerJoin(
+				memberships,
+				and(
+					eq(memberships.venueId, assignments.venueId),
+					eq(memberships.personId, assignments.personId)
+				)
+			)
 			.innerJoin(positions, eq(positions.id, assignments.positionId))
 			.leftJoin(rooms, and(eq(rooms.id, positions.roomId), eq(rooms.venueId, venueId)))
 			.where(and(eq(assignments.venueId, venueId), eq(assignments.showId, showId)))

@@ -4,7 +4,15 @@ import { renderScheduleChange } from '$emails/schedule-change';
 import { sheetChanges, type SheetChange, type SheetSummary } from '$lib/runsheets/changes';
 import { zonedEventCalendar } from '$lib/runsheets/ics';
 import type { Db } from '$lib/server/db/client';
-import { mailMessages, runSheetSends, shows, users, venues } from '$lib/server/db/schema';
+import type { MailStatus } from '$lib/mail-words';
+import {
+	mailMessages,
+	memberships,
+	runSheetSends,
+	shows,
+	users,
+	venues
+} from '$lib/server/db/schema';
 import { queueMail } from '$lib/server/mail/queue';
 import { localDay } from '$lib/util/when';
 import { buildShowRunSheets, runSheetUrl, type Show, type Venue } from './build';
@@ -190,9 +198,14 @@ export async function queueRunSheets(
 		const still = new Set(sheets.map((s) => s.personId));
 		const gone = [...latest.values()].filter((r) => !still.has(r.personId) && r.snapshot.assigned);
 		if (gone.length) {
+			// Someone who left the venue hears nothing more from it.
 			const people = await db
 				.select({ id: users.id, name: users.name, email: users.email })
 				.from(users)
+				.innerJoin(
+					memberships,
+					and(eq(memberships.personId, users.id), eq(memberships.venueId, venue.id))
+				)
 				.where(
 					inArray(
 						users.id,
@@ -234,7 +247,7 @@ export interface DeliveryRow {
 	revision: number;
 	reason: SendReason;
 	messageId: string | null;
-	status: 'queued' | 'sent' | 'failed';
+	status: MailStatus;
 	attempts: number;
 	lastError: string | null;
 	queuedAt: Date;

@@ -473,9 +473,15 @@ export async function duplicateScene(
 	);
 }
 
+/** Remove a scene; false when it was already gone (removed a moment ago by someone else). */
 export async function deleteScene(db: Db, venueId: string, personId: string, row: SceneRow) {
-	await db.delete(scenes).where(and(eq(scenes.id, row.id), eq(scenes.venueId, venueId)));
+	const done = await db
+		.delete(scenes)
+		.where(and(eq(scenes.id, row.id), eq(scenes.venueId, venueId)))
+		.returning({ id: scenes.id });
+	if (!done.length) return false;
 	await audit(db, { venueId, personId, action: 'scene.removed', detail: { name: row.name } });
+	return true;
 }
 
 /** A scene's change history, newest first, with who made each change. */

@@ -1,5 +1,5 @@
 import { createHash, randomBytes } from 'node:crypto';
-import { and, asc, eq, isNull } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
 import { buildCalendar, type CalendarEvent } from '../../schedule';
 import type { Db } from '../db/client';
 import { assignments, calendarFeeds, memberships, positions, shows, venues } from '../db/schema';
@@ -57,17 +57,27 @@ export async function feedCalendar(db: Db, token: string, origin: string) {
 	const events: CalendarEvent[] = [];
 	if (feed.kind === 'venue') {
 		if (!feed.venueId) return null;
-		// A venue link stops working when the person who made it leaves the venue.
-		const member = await db
-			.select({ id: memberships.id })
+		// A venue link stops working when the person who made it leaves the venue, and shows what
+		// their role today may see: crew see the nights they are on, as in the calendar.
+		const [member] = await db
+			.select({ role: memberships.role })
 			.from(memberships)
 			.where(and(eq(memberships.venueId, feed.venueId), eq(memberships.personId, feed.personId)));
-		if (!member.length) return null;
+		if (!member) return null;
+		const theirs = db
+			.select({ id: assignments.showId })
+			.from(assignments)
+			.where(and(eq(assignments.venueId, feed.venueId), eq(assignments.personId, feed.personId)));
 		const rows = await db
 			.select({ show: shows, venueName: venues.name, slug: venues.slug })
 			.from(shows)
 			.innerJoin(venues, eq(venues.id, shows.venueId))
-			.where(eq(shows.venueId, feed.venueId))
+			.where(
+				and(
+					eq(shows.venueId, feed.venueId),
+					member.role === 'crew' ? inArray(shows.id, theirs) : undefined
+				)
+			)
 			.orderBy(asc(shows.doorsOpen));
 		for (const { show, venueName, slug } of rows) {
 			if (show.status === 'dark') continue;
@@ -84,6 +94,12 @@ export async function feedCalendar(db: Db, token: string, origin: string) {
 		}
 		return buildCalendar(events, { name: rows[0]?.venueName ?? 'Shows' });
 	}
+	// A person's link covers the venues they belong to today; with none, it no longer works.
+	const venuesOf = await db
+		.select({ venueId: memberships.venueId })
+		.from(memberships)
+		.where(eq(memberships.personId, feed.personId));
+	if (!venuesOf.length) return null;
 	const rows = await db
 		.select({
 			id: assignments.id,
@@ -97,6 +113,13 @@ export async function feedCalendar(db: Db, token: string, origin: string) {
 		.innerJoin(shows, eq(shows.id, assignments.showId))
 		.innerJoin(positions, eq(positions.id, assignments.positionId))
 		.innerJoin(venues, eq(venues.id, assignments.venueId))
+		.innerJoin(
+			memberships,
+			and(
+				eq(memberships.venueId, assignments.venueId),
+				eq(memberships.personId, assignments.personId)
+			)
+		)
 		.where(eq(assignments.personId, feed.personId))
 		.orderBy(asc(shows.doorsOpen));
 	for (const r of rows) {

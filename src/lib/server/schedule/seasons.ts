@@ -37,8 +37,13 @@ export interface RegenerateResult {
 	updated: number;
 	removed: number;
 	kept: number;
-	/** Untouched shows that left the rule but stay: crew are assigned, or removal was not confirmed. */
+	/**
+	 * Untouched shows that left the rule but stay: crew are assigned, checks were recorded, or
+	 * removal was not confirmed.
+	 */
 	stayed: number;
+	/** The dates among those that stay because checks were recorded on them (history is kept). */
+	recorded: string[];
 }
 
 /** Which untouched shows that left the rule may go; the rest stay as they are. */
@@ -53,7 +58,18 @@ export interface LeavingShow {
 	id: string;
 	date: string;
 	assignments: number;
+	/** Check results, sign-offs and stand-downs recorded on the night: such a night always stays. */
+	results: number;
 }
+
+/**
+ * How many history rows (results, sign-off, stand-downs) a show has. Written out in full: Drizzle
+ * leaves column names unqualified in a one-table select, which would tie the inner tables to
+ * themselves.
+ */
+const history = sql<number>`((select count(*) from check_results h where h.show_id = "shows"."id")
+	+ (select count(*) from sign_offs h where h.show_id = "shows"."id")
+	+ (select count(*) from stand_downs h where h.show_id = "shows"."id"))::int`;
 
 type Reader = Pick<Db, 'select'>;
 
@@ -72,7 +88,8 @@ export async function leavingShows(
 		.select({
 			id: shows.id,
 			date: shows.date,
-			assignments: sql<number>`count(${assignments.id})::int`
+			assignments: sql<number>`count(${assignments.id})::int`,
+			results: history
 		})
 		.from(shows)
 		.leftJoin(assignments, eq(assignments.showId, shows.id))
@@ -82,10 +99,11 @@ export async function leavingShows(
 	return rows.filter((r) => !wanted.has(r.date));
 }
 
-/** The leaving shows that a choice removes. */
+/** The leaving shows that a choice removes. A night with recorded checks is never removed. */
 export function removedBy(leaving: LeavingShow[], choice: RemovalChoice) {
 	return leaving.filter(
 		(s) =>
+			s.results === 0 &&
 			(choice.assigned || s.assignments === 0) &&
 			(choice.confirmed === 'all' || choice.confirmed.has(s.date))
 	);
@@ -116,7 +134,14 @@ export async function regenerateShows(
 			.where(and(eq(shows.venueId, venueId), eq(shows.seasonId, seasonId)));
 		const byDate = new Map(existing.map((s) => [s.date, s]));
 		const wanted = new Set(nights.map((n) => n.date));
-		const result: RegenerateResult = { added: 0, updated: 0, removed: 0, kept: 0, stayed: 0 };
+		const result: RegenerateResult = {
+			added: 0,
+			updated: 0,
+			removed: 0,
+			kept: 0,
+			stayed: 0,
+			recorded: []
+		};
 
 		const leaving = await leavingShows(tx, venueId, seasonId, nights);
 		const stale = removedBy(leaving, removal).map((s) => s.id);
@@ -125,6 +150,7 @@ export async function regenerateShows(
 			result.removed = stale.length;
 		}
 		result.stayed = leaving.length - stale.length;
+		result.recorded = leaving.filter((s) => s.results > 0).map((s) => s.date);
 		for (const night of nights) {
 			const opening = season.openingNight === night.date;
 			const show = byDate.get(night.date);
@@ -200,6 +226,16 @@ export async function updateSeason(
 		.returning();
 	if (!done.length) return null;
 	return regenerateShows(db, venueId, seasonId, timeZone, removal);
+}
+
+/** The dates of a season's nights that have recorded checks, sign-offs or stand-downs. */
+export async function recordedNights(db: Reader, venueId: string, seasonId: string) {
+	const rows = await db
+		.select({ date: shows.date, results: history })
+		.from(shows)
+		.where(and(eq(shows.venueId, venueId), eq(shows.seasonId, seasonId)))
+		.orderBy(asc(shows.date));
+	return rows.filter((r) => r.results > 0).map((r) => r.date);
 }
 
 export function seasonShows(db: Db, venueId: string, seasonId: string) {

@@ -1,8 +1,16 @@
 import { createHash, randomBytes } from 'node:crypto';
-import { and, count, eq, isNull, gt, asc } from 'drizzle-orm';
+import { and, count, eq, isNull, gt, asc, inArray, ne, sql } from 'drizzle-orm';
 import type { Role } from '$lib/roles';
 import type { Db } from '../db/client';
-import { invitations, memberships, users } from '../db/schema';
+import {
+	assignments,
+	calendarFeeds,
+	invitations,
+	mailMessages,
+	memberships,
+	shows,
+	users
+} from '../db/schema';
 import { audit } from '../audit';
 
 export const INVITATION_DAYS = 14;
@@ -58,7 +66,81 @@ async function ownerCount(db: Pick<Db, 'select'>, venueId: string) {
 	return row.n;
 }
 
-/** Change a member's role; the last owner cannot stop being one. */
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/** How much a role sees of a venue: a change to a lower one takes away what it no longer may. */
+const REACH: Record<Role, number> = { crew: 0, designer: 1, show_manager: 2, owner: 3 };
+
+/**
+ * What a person stops getting when they leave a venue or move to a role that sees less: their
+ * nights still to come in it (past ones stay on record), its mail still waiting to go to them, and
+ * on leaving, their calendar link for it. Feeds and run sheets also check membership and role on
+ * every request; this makes the change last even if they come back.
+ */
+async function endVenueAccess(
+	tx: Tx,
+	venueId: string,
+	personId: string,
+	why: 'left' | 'role',
+	now = new Date()
+) {
+	const upcoming = tx
+		.select({ id: shows.id })
+		.from(shows)
+		.where(and(eq(shows.venueId, venueId), gt(shows.doorsClose, now)));
+	await tx
+		.delete(assignments)
+		.where(
+			and(
+				eq(assignments.venueId, venueId),
+				eq(assignments.personId, personId),
+				inArray(assignments.showId, upcoming)
+			)
+		);
+	const [person] = await tx
+		.select({ email: users.email })
+		.from(users)
+		.where(eq(users.id, personId));
+	if (person)
+		await tx
+			.update(mailMessages)
+			.set({
+				status: 'withdrawn',
+				lastError:
+					why === 'left'
+						? 'Not sent: they left the venue before it went.'
+						: 'Not sent: their role changed before it went.'
+			})
+			.where(
+				and(
+					eq(mailMessages.venueId, venueId),
+					eq(mailMessages.status, 'queued'),
+					ne(mailMessages.kind, 'invitation'),
+					sql`lower(${mailMessages.recipient}) = lower(${person.email})`
+				)
+			);
+	if (why === 'left')
+		await tx
+			.delete(calendarFeeds)
+			.where(and(eq(calendarFeeds.personId, personId), eq(calendarFeeds.venueId, venueId)));
+}
+
+/** True when the address belongs to a member of the venue (mail for the venue may go to it). */
+export async function isMemberAddress(db: Db, venueId: string, email: string) {
+	const rows = await db
+		.select({ id: memberships.id })
+		.from(memberships)
+		.innerJoin(users, eq(users.id, memberships.personId))
+		.where(
+			and(eq(memberships.venueId, venueId), sql`lower(${users.email}) = lower(${email.trim()})`)
+		);
+	return rows.length > 0;
+}
+
+/**
+ * Change a member's role; the last owner cannot stop being one. A role that sees less ends their
+ * nights to come and withdraws the venue's mail still waiting for them.
+ */
 export async function changeRole(
 	db: Db,
 	venueId: string,
@@ -82,6 +164,8 @@ export async function changeRole(
 			);
 		}
 		await tx.update(memberships).set({ role }).where(eq(memberships.id, membershipId));
+		if (REACH[role] < REACH[target.role])
+			await endVenueAccess(tx, venueId, target.personId, 'role');
 		await audit(tx, {
 			venueId,
 			personId: actorId,
@@ -91,7 +175,10 @@ export async function changeRole(
 	});
 }
 
-/** Remove a member; the last owner cannot be removed. */
+/**
+ * Remove a member; the last owner cannot be removed. Their nights to come, the venue's mail still
+ * waiting for them and their calendar link for the venue end with the membership.
+ */
 export async function removeMember(db: Db, venueId: string, membershipId: string, actorId: string) {
 	await db.transaction(async (tx) => {
 		const rows = await tx
@@ -107,6 +194,7 @@ export async function removeMember(db: Db, venueId: string, membershipId: string
 			);
 		}
 		await tx.delete(memberships).where(eq(memberships.id, membershipId));
+		await endVenueAccess(tx, venueId, target.personId, 'left');
 		await audit(tx, {
 			venueId,
 			personId: actorId,

@@ -7,7 +7,7 @@ import { mailMessages, users } from '$lib/server/db/schema';
 import { parseForm } from '$lib/server/forms';
 import { findMail } from '$lib/server/mail/outbox';
 import { resendMail } from '$lib/server/mail/queue';
-import { MembershipError } from '$lib/server/venues/members';
+import { MembershipError, isMemberAddress } from '$lib/server/venues/members';
 import { resendInvitationMail } from '$lib/server/venues/invite-mail';
 import { resendSchema } from '$lib/schemas/mail';
 import type { Actions, PageServerLoad } from './$types';
@@ -54,6 +54,14 @@ export const actions: Actions = {
 		// Re-sending an invitation issues a new link to join the venue: that stays with owners.
 		if (original.kind === 'invitation' && venue.role !== 'owner')
 			return fail(403, { message: 'Only an owner can send an invitation again.' });
+		// Venue mail goes only to people who still belong to the venue.
+		if (
+			original.kind !== 'invitation' &&
+			!(await isMemberAddress(db, venue.id, original.recipient))
+		)
+			return fail(400, {
+				message: `${original.recipient} no longer belongs to this venue, so the message was not sent again.`
+			});
 		let fresh;
 		try {
 			fresh =

@@ -77,7 +77,7 @@ export const actions: Actions = {
 		const venue = requireRole(event);
 		const parsed = await parseForm(event.request, dateSchema);
 		if (!parsed.ok) return fail(400, { action: 'available', message: parsed.errors.date?.[0] });
-		await db
+		const done = await db
 			.delete(unavailability)
 			.where(
 				and(
@@ -85,7 +85,13 @@ export const actions: Actions = {
 					eq(unavailability.personId, event.locals.person!.id),
 					eq(unavailability.date, parsed.data.date)
 				)
-			);
+			)
+			.returning({ id: unavailability.id });
+		if (!done.length)
+			return fail(404, {
+				action: 'available',
+				message: 'You were not marked away on that night.'
+			});
 		return { action: 'available', saved: true };
 	},
 	feed: async (event) => {

@@ -72,6 +72,6 @@ export function previewOf(
 			opening: n.date === fields.openingNight
 		})),
 		darkNights: fields.darkNights,
-		leaving: leaving.map((s) => ({ date: s.date, assignments: s.assignments }))
+		leaving: leaving.map((s) => ({ date: s.date, assignments: s.assignments, results: s.results }))
 	};
 }

@@ -115,6 +115,7 @@ export const actions: Actions = {
 		const parsed = await parseForm(event.request, idSchema);
 		if (!parsed.ok) return fail(400, { message: 'That sensor does not exist.' });
 		const removal = await removeSensor(db, venue.id, prop.id, parsed.data.id);
+		if (!removal.removed) return fail(404, { message: 'That sensor was already removed.' });
 		await discardObjects(objectStore(env), removal.keys);
 		return { removed: true };
 	},
@@ -123,7 +124,7 @@ export const actions: Actions = {
 		const prop = await editableProp(event, venue);
 		const parsed = await parseForm(event.request, idSchema);
 		if (!parsed.ok) return fail(400, { message: 'That output does not exist.' });
-		await db
+		const done = await db
 			.delete(outputs)
 			.where(
 				and(
@@ -131,7 +132,9 @@ export const actions: Actions = {
 					eq(outputs.venueId, venue.id),
 					eq(outputs.propId, prop.id)
 				)
-			);
+			)
+			.returning({ id: outputs.id });
+		if (!done.length) return fail(404, { message: 'That output was already removed.' });
 		return { removed: true };
 	},
 	removeFile: async (event) => {
@@ -140,6 +143,7 @@ export const actions: Actions = {
 		const parsed = await parseForm(event.request, idSchema);
 		if (!parsed.ok) return fail(400, { message: 'That file does not exist.' });
 		const removal = await removePropFile(db, venue.id, prop.id, parsed.data.id);
+		if (!removal.removed) return fail(404, { message: 'That file was already removed.' });
 		await discardObjects(objectStore(env), removal.keys);
 		return { removed: true };
 	},
@@ -147,6 +151,7 @@ export const actions: Actions = {
 		const venue = requireRole(event, ...EDITORS);
 		const prop = await editableProp(event, venue);
 		const removal = await removeProp(db, venue.id, prop.id);
+		if (!removal.removed) return fail(404, { message: 'That prop was already removed.' });
 		await discardObjects(objectStore(env), removal.keys);
 		await audit(db, {
 			venueId: venue.id,

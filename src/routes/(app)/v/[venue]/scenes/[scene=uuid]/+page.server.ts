@@ -99,7 +99,8 @@ export const actions: Actions = {
 	remove: async (event) => {
 		const venue = requireRole(event, ...EDITORS);
 		const loaded = await sceneOf(event, venue.id);
-		await deleteScene(db, venue.id, event.locals.person!.id, loaded.row);
+		if (!(await deleteScene(db, venue.id, event.locals.person!.id, loaded.row)))
+			return fail(404, { message: 'That scene was already removed.' });
 		redirect(303, `/v/${venue.slug}/scenes`);
 	}
 };

@@ -6,8 +6,15 @@ import { PLANNERS, requireRole } from '$lib/server/auth/guard';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db';
 import { seasons } from '$lib/server/db/schema';
-import { leavingShows, removedBy, seasonShows, updateSeason } from '$lib/server/schedule/seasons';
-import { localTime } from '$lib/util/when';
+import { isRestrictViolation } from '$lib/server/db/errors';
+import {
+	leavingShows,
+	recordedNights,
+	removedBy,
+	seasonShows,
+	updateSeason
+} from '$lib/server/schedule/seasons';
+import { localDay, localTime } from '$lib/util/when';
 import { previewOf, readSeasonForm } from '../season-form.server';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -103,14 +110,25 @@ export const actions: Actions = {
 				}
 			});
 		}
-		const result = await updateSeason(
-			db,
-			venue.id,
-			event.params.season,
-			venue.timeZone,
-			read.fields,
-			read.removal
-		);
+		let result;
+		try {
+			result = await updateSeason(
+				db,
+				venue.id,
+				event.params.season,
+				venue.timeZone,
+				read.fields,
+				read.removal
+			);
+		} catch (e) {
+			// A result recorded on a leaving night between the preview and this save.
+			if (!isRestrictViolation(e)) throw e;
+			return fail(409, {
+				values: read.values,
+				message:
+					'Checks were recorded a moment ago on a night this change would remove. Nothing was saved: preview again to see which nights stay.'
+			});
+		}
 		if (!result)
 			return fail(404, { values: read.values, message: 'That season no longer exists.' });
 		await audit(db, {
@@ -125,7 +143,19 @@ export const actions: Actions = {
 		const venue = requireRole(event, ...PLANNERS);
 		const season = await findSeason(venue.id, event.params.season);
 		if (!season) return fail(404, { message: 'That season no longer exists.' });
-		await db.delete(seasons).where(and(eq(seasons.id, season.id), eq(seasons.venueId, venue.id)));
+		const refusal = (dates: string[]) =>
+			fail(400, {
+				message: `${season.name} cannot be removed: checks were recorded on ${dates.length === 1 ? '1 night' : `${dates.length} nights`} (${dates.slice(0, 5).map(localDay).join(', ')}${dates.length > 5 ? '…' : ''}), and check history is kept for good. To end the season early, change its last night; to take a night off the calendar, cancel it on its own page.`
+			});
+		const recorded = await recordedNights(db, venue.id, season.id);
+		if (recorded.length) return refusal(recorded);
+		try {
+			await db.delete(seasons).where(and(eq(seasons.id, season.id), eq(seasons.venueId, venue.id)));
+		} catch (e) {
+			// A result recorded between the look and the removal.
+			if (!isRestrictViolation(e)) throw e;
+			return refusal(await recordedNights(db, venue.id, season.id));
+		}
 		await audit(db, {
 			venueId: venue.id,
 			personId: event.locals.person!.id,

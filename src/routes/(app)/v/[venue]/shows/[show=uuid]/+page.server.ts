@@ -370,13 +370,14 @@ export const actions: Actions = {
 				)
 			)
 			.returning();
-		if (done.length)
-			await audit(db, {
-				venueId: venue.id,
-				personId: event.locals.person!.id,
-				action: 'show.scene_put_back',
-				detail: { show: show.id, date: show.date, scene: parsed.data.sceneId }
-			});
+		if (!done.length)
+			return fail(404, { action: 'include', message: 'That scene is already in this night.' });
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'show.scene_put_back',
+			detail: { show: show.id, date: show.date, scene: parsed.data.sceneId }
+		});
 		await notifyShow(db, show.id);
 		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'include', saved: true };

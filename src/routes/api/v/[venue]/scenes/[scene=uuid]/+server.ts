@@ -65,6 +65,7 @@ export const DELETE: RequestHandler = async (event) => {
 	const venue = requireRole(event, ...EDITORS);
 	const found = await apiScene(event, venue.id);
 	if (!found.ok) return found.response;
-	await deleteScene(db, venue.id, event.locals.person!.id, found.loaded.row);
+	if (!(await deleteScene(db, venue.id, event.locals.person!.id, found.loaded.row)))
+		return json({ message: 'That scene was already removed.' }, { status: 404 });
 	return new Response(null, { status: 204 });
 };

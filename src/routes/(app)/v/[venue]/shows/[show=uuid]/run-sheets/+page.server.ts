@@ -9,6 +9,7 @@ import { findMail } from '$lib/server/mail/outbox';
 import { resendMail } from '$lib/server/mail/queue';
 import { visibleRunSheets } from '$lib/server/runsheets/access';
 import { queueRunSheets, runSheetDelivery } from '$lib/server/runsheets/send';
+import { isMemberAddress } from '$lib/server/venues/members';
 import { resendSchema } from '$lib/schemas/mail';
 import { localDay } from '$lib/util/when';
 import type { Actions, PageServerLoad } from './$types';
@@ -73,6 +74,10 @@ export const actions: Actions = {
 		const original = await findMail(db, venue.id, parsed.data.id);
 		if (!original || original.kind !== 'run_sheet' || original.subjectId !== event.params.show)
 			return fail(400, { sendError: 'That message does not exist.' });
+		if (!(await isMemberAddress(db, venue.id, original.recipient)))
+			return fail(400, {
+				sendError: `${original.recipient} no longer belongs to this venue, so the run sheet was not sent again.`
+			});
 		let fresh;
 		try {
 			fresh = await resendMail(db, original, person.id);

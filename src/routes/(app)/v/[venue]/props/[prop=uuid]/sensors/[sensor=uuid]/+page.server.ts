@@ -146,14 +146,15 @@ export const actions: Actions = {
 		if (!parsed.ok)
 			return fail(400, { action: 'removeCapture', message: 'That capture does not exist.' });
 		const removal = await removeCapture(db, venue.id, sensor.id, parsed.data.captureId);
+		if (!removal.removed)
+			return fail(404, { action: 'removeCapture', message: 'That capture was already removed.' });
 		await discardObjects(objectStore(env), removal.keys);
-		if (removal.removed)
-			await audit(db, {
-				venueId: venue.id,
-				personId: event.locals.person!.id,
-				action: 'capture.removed',
-				detail: { sensor: sensor.name }
-			});
-		return { action: 'removeCapture', removed: removal.removed };
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'capture.removed',
+			detail: { sensor: sensor.name }
+		});
+		return { action: 'removeCapture', removed: true };
 	}
 };

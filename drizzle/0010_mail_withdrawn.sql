@@ -1,0 +1,1 @@
+ALTER TYPE "public"."mail_status" ADD VALUE 'withdrawn';
