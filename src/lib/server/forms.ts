@@ -5,11 +5,13 @@ import { unstorableErrors } from './text';
 /** Parse a form with a zod schema; errors come back per field, in words meant for people. */
 export async function parseForm<T extends z.ZodType>(request: Request, schema: T) {
 	const form = await request.formData().catch(() => new FormData());
-	const raw: Record<string, FormDataEntryValue | FormDataEntryValue[]> = {};
-	for (const key of new Set(form.keys())) {
-		const all = form.getAll(key);
-		raw[key] = all.length > 1 ? all : all[0];
-	}
+	// Own properties only: a field named __proto__ stays a field rather than setting the prototype.
+	const raw: Record<string, FormDataEntryValue | FormDataEntryValue[]> = Object.fromEntries(
+		[...new Set(form.keys())].map((key) => {
+			const all = form.getAll(key);
+			return [key, all.length > 1 ? all : all[0]];
+		})
+	);
 	const unstorable = unstorableErrors(raw, 1);
 	if (unstorable) return { ok: false as const, errors: unstorable, raw };
 	const result = schema.safeParse(raw);
