@@ -11,6 +11,7 @@ import { accounts, sessions, users, verificationTokens } from '$lib/server/db/sc
 import { verifyPassword } from '$lib/server/auth/password';
 import { config } from '$lib/server/config';
 import { sendMail } from '$lib/server/mail/transport';
+import { safeRedirect } from '$lib/util/safe-redirect';
 
 const credentialsSchema = z.object({
 	email: z.string().trim().toLowerCase().email(),
@@ -60,6 +61,10 @@ export const { handle, signIn, signOut } = SvelteKitAuth(async (): Promise<Svelt
 			})
 		],
 		callbacks: {
+			// Every target Auth.js is given (the form's redirectTo, a Referer) stays on this site.
+			redirect({ url, baseUrl }) {
+				return new URL(safeRedirect(url, { origin: baseUrl, fallback: '/venues' }), baseUrl).href;
+			},
 			session({ session, token }) {
 				if (token.sub) session.user.id = token.sub;
 				return session;

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { safeRedirect } from '$lib/util/safe-redirect';
 
 export const emailField = z
 	.string({ error: 'Enter your e-mail address.' })
@@ -10,11 +11,9 @@ export const emailField = z
 
 /** Only same-site paths, so a crafted link cannot send people elsewhere after signing in. */
 export const redirectToField = z
-	.string()
+	.unknown()
 	.optional()
-	.transform((v) =>
-		v && v.startsWith('/') && !v.startsWith('//') && !v.startsWith('/\\') ? v : '/'
-	);
+	.transform((v) => safeRedirect(v));
 
 export const passwordSignInSchema = z.object({
 	email: emailField,

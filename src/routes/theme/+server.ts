@@ -1,5 +1,6 @@
 import { redirect } from '@sveltejs/kit';
 import { THEME_COOKIE } from '$lib/server/hooks/theme';
+import { safeRedirect } from '$lib/util/safe-redirect';
 import type { RequestHandler } from './$types';
 
 // Public: stores a display preference only.
@@ -14,7 +15,5 @@ export const POST: RequestHandler = async ({ request, cookies, url }) => {
 		maxAge: 60 * 60 * 24 * 365
 	});
 	// Back to the page the person was on, when the Referer is a well-formed address on this site.
-	const back = URL.parse(request.headers.get('referer') ?? '');
-	const target = back && back.origin === url.origin ? back.pathname : '/';
-	redirect(303, target);
+	redirect(303, safeRedirect(request.headers.get('referer'), { origin: url.origin }));
 };

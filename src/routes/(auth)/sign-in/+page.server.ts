@@ -5,16 +5,13 @@ import { db } from '$lib/server/db';
 import { checkSignInAllowed, recordSignInAttempt } from '$lib/server/auth/rate-limit';
 import { emailLinkSchema, passwordSignInSchema } from '$lib/schemas/auth';
 import { keep, parseForm } from '$lib/server/forms';
+import { safeRedirect } from '$lib/util/safe-redirect';
 import type { Actions, PageServerLoad } from './$types';
 
 // Public: the sign-in page itself.
 export const load: PageServerLoad = ({ locals, url }) => {
-	const redirectTo = url.searchParams.get('redirectTo') ?? '';
-	if (locals.person)
-		redirect(
-			303,
-			redirectTo.startsWith('/') && !redirectTo.startsWith('//') ? redirectTo : '/venues'
-		);
+	const redirectTo = safeRedirect(url.searchParams.get('redirectTo'), { fallback: '/venues' });
+	if (locals.person) redirect(303, redirectTo);
 	// Auth.js sends people back here with ?error=… when an e-mail link is stale or used.
 	const error = url.searchParams.get('error');
 	return {
