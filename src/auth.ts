@@ -1,3 +1,4 @@
+import type { Handle, RequestEvent } from '@sveltejs/kit';
 import { SvelteKitAuth, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import Nodemailer from '@auth/sveltekit/providers/nodemailer';
@@ -18,7 +19,7 @@ const credentialsSchema = z.object({
 	password: z.string().min(1).max(200)
 });
 
-export const { handle, signIn, signOut } = SvelteKitAuth(async (): Promise<SvelteKitAuthConfig> => {
+const library = SvelteKitAuth(async (): Promise<SvelteKitAuthConfig> => {
 	const { host, port, secure } = config.smtp;
 	return {
 		adapter: DrizzleAdapter(db, {
@@ -30,6 +31,7 @@ export const { handle, signIn, signOut } = SvelteKitAuth(async (): Promise<Svelt
 		// Password sign-in needs JWT sessions; the adapter still keeps people and e-mail tokens.
 		session: { strategy: 'jwt' as const, maxAge: 30 * 24 * 60 * 60 },
 		secret: env.AUTH_SECRET,
+		// The request's own host is never used: every request reaches Auth.js rebuilt on ORIGIN.
 		trustHost: true,
 		useSecureCookies: config.production,
 		pages: { signIn: '/sign-in', verifyRequest: '/sign-in/check-email', error: '/sign-in' },
@@ -72,3 +74,51 @@ export const { handle, signIn, signOut } = SvelteKitAuth(async (): Promise<Svelt
 		}
 	};
 });
+
+/** Headers a client or proxy could use to make Auth.js build links on another host. */
+const HOST_HEADERS = [
+	'host',
+	'x-forwarded-host',
+	'x-forwarded-proto',
+	'x-forwarded-port',
+	'forwarded'
+];
+
+/**
+ * The request as if it had come to the configured public address (ORIGIN): same path, query,
+ * method, cookies and body, but the host and any forwarded-host headers replaced. Auth.js builds
+ * sign-in links and redirects from the request, so it only ever sees requests made this way.
+ */
+export async function onPublicOrigin(request: Request): Promise<Request> {
+	const origin = new URL(config.origin);
+	const from = new URL(request.url);
+	const headers = new Headers(request.headers);
+	for (const name of HOST_HEADERS) headers.delete(name);
+	headers.set('host', origin.host);
+	const hasBody = request.method !== 'GET' && request.method !== 'HEAD';
+	return new Request(new URL(from.pathname + from.search, origin), {
+		method: request.method,
+		headers,
+		body: hasBody ? await request.arrayBuffer() : undefined
+	});
+}
+
+function withRequest(event: RequestEvent, request: Request): RequestEvent {
+	return { ...event, request, url: new URL(request.url) };
+}
+
+/** Auth.js's own routes under /auth, always on the public address. */
+export const handle: Handle = async ({ event, resolve }) => {
+	if (!event.url.pathname.startsWith('/auth/')) return library.handle({ event, resolve });
+	const request = await onPublicOrigin(event.request);
+	return library.handle({ event: withRequest(event, request), resolve });
+};
+
+/** Sign in from a form action (the form's fields are passed on to Auth.js). */
+export async function signIn(event: RequestEvent) {
+	return library.signIn(withRequest(event, await onPublicOrigin(event.request)));
+}
+
+export async function signOut(event: RequestEvent) {
+	return library.signOut(withRequest(event, await onPublicOrigin(event.request)));
+}

@@ -1,4 +1,5 @@
 import { env } from '$env/dynamic/private';
+import { dev } from '$app/environment';
 
 /** Read a required variable, failing loudly at start-up rather than on the first request. */
 function required(name: string): string {
@@ -7,14 +8,34 @@ function required(name: string): string {
 	return value;
 }
 
-export function checkConfig() {
+/** At start-up. A built server (`node build`) counts as production, as does NODE_ENV=production. */
+export function checkConfig(built = !dev) {
 	required('DATABASE_URL');
 	required('AUTH_SECRET');
+	if ((built || env.NODE_ENV === 'production') && !env.ORIGIN) {
+		throw new Error(
+			'ORIGIN is not set. In production every sign-in link, run sheet and calendar link is built ' +
+				'from it, never from the request: set it to the address people open, such as https://gloaming.example.org.'
+		);
+	}
+	if (env.ORIGIN) {
+		let url: URL | null = null;
+		try {
+			url = new URL(env.ORIGIN);
+		} catch {
+			// reported below
+		}
+		if (!url || !/^https?:$/.test(url.protocol) || url.origin !== env.ORIGIN.replace(/\/$/, '')) {
+			throw new Error(
+				`ORIGIN must be just the public address, such as https://gloaming.example.org (it is ${env.ORIGIN}).`
+			);
+		}
+	}
 }
 
 export const config = {
 	get origin() {
-		return env.ORIGIN ?? 'http://127.0.0.1:5510';
+		return (env.ORIGIN || 'http://127.0.0.1:5510').replace(/\/$/, '');
 	},
 	get mailFrom() {
 		return env.MAIL_FROM ?? 'Gloaming <no-reply@gloaming.test>';

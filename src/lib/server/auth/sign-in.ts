@@ -13,7 +13,7 @@ export async function signInWithPassword(
 	redirectTo: string
 ): Promise<false> {
 	const body = new URLSearchParams({ providerId: 'credentials', email, password, redirectTo });
-	// Keep the original headers (host, forwarded, cookies): Auth.js builds its redirect from them.
+	// Keep the cookies; signIn rebuilds the request on ORIGIN, so the host headers do not matter.
 	const headers = new Headers(event.request.headers);
 	headers.set('content-type', 'application/x-www-form-urlencoded');
 	headers.delete('content-length');

@@ -16,6 +16,7 @@ import {
 import { queueMail } from '$lib/server/mail/queue';
 import { localDay } from '$lib/util/when';
 import { buildShowRunSheets, runSheetUrl, type Show, type Venue } from './build';
+import { config } from '$lib/server/config';
 
 export type SendReason = 'send' | 'auto' | 'change';
 type SendRow = typeof runSheetSends.$inferSelect;
@@ -366,7 +367,7 @@ export async function noticeRunSheetChanges(
 			venueId,
 			showId,
 			reason: 'change',
-			origin: event.url.origin,
+			origin: config.origin,
 			actorId: event.locals.person?.id ?? null
 		});
 	} catch (e) {

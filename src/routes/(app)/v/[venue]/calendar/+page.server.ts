@@ -8,6 +8,7 @@ import { keep, parseForm } from '$lib/server/forms';
 import { feedsOf, resetFeed } from '$lib/server/schedule/feeds';
 import { oneOffSchema } from '$lib/schemas/schedule';
 import type { Actions, PageServerLoad } from './$types';
+import { config } from '$lib/server/config';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
@@ -58,6 +59,6 @@ export const actions: Actions = {
 	feed: async (event) => {
 		const venue = requireRole(event, 'owner', 'show_manager', 'designer');
 		const token = await resetFeed(db, event.locals.person!.id, 'venue', venue.id);
-		return { action: 'feed', feedUrl: `${event.url.origin}/calendar/${token}.ics` };
+		return { action: 'feed', feedUrl: `${config.origin}/calendar/${token}.ics` };
 	}
 };

@@ -8,6 +8,7 @@ import { feedsOf, resetFeed } from '$lib/server/schedule/feeds';
 import { dateSchema } from '$lib/schemas/schedule';
 import { localDate, localTime } from '$lib/util/when';
 import type { Actions, PageServerLoad } from './$types';
+import { config } from '$lib/server/config';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
@@ -97,6 +98,6 @@ export const actions: Actions = {
 	feed: async (event) => {
 		requireRole(event);
 		const token = await resetFeed(db, event.locals.person!.id, 'person');
-		return { action: 'feed', feedUrl: `${event.url.origin}/calendar/${token}.ics` };
+		return { action: 'feed', feedUrl: `${config.origin}/calendar/${token}.ics` };
 	}
 };

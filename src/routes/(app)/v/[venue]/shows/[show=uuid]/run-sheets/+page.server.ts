@@ -13,6 +13,7 @@ import { isMemberAddress } from '$lib/server/venues/members';
 import { resendSchema } from '$lib/schemas/mail';
 import { localDay } from '$lib/util/when';
 import type { Actions, PageServerLoad } from './$types';
+import { config } from '$lib/server/config';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
@@ -21,7 +22,7 @@ export const load: PageServerLoad = async (event) => {
 		venue,
 		person.id,
 		event.params.show,
-		event.url.origin
+		config.origin
 	);
 	return {
 		show: { id: show.id, date: show.date, dateLabel: localDay(show.date), status: show.status },
@@ -39,7 +40,7 @@ export const actions: Actions = {
 			venue,
 			person.id,
 			event.params.show,
-			event.url.origin
+			config.origin
 		);
 		if (show.status !== 'scheduled')
 			return fail(400, { sendError: 'This show is not on, so there are no run sheets to send.' });
@@ -51,7 +52,7 @@ export const actions: Actions = {
 				venueId: venue.id,
 				showId: show.id,
 				reason: 'send',
-				origin: event.url.origin,
+				origin: config.origin,
 				actorId: person.id
 			});
 		} catch (e) {

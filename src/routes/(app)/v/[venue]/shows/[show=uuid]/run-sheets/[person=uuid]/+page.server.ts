@@ -3,6 +3,7 @@ import { requireRole } from '$lib/server/auth/guard';
 import { visibleRunSheets } from '$lib/server/runsheets/access';
 import { localDay } from '$lib/util/when';
 import type { PageServerLoad } from './$types';
+import { config } from '$lib/server/config';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
@@ -10,7 +11,7 @@ export const load: PageServerLoad = async (event) => {
 		venue,
 		event.locals.person!.id,
 		event.params.show,
-		event.url.origin
+		config.origin
 	);
 	const sheet = sheets.find((s) => s.personId === event.params.person);
 	if (!sheet) {
