@@ -125,13 +125,10 @@ export class Browser {
 			event,
 			resolve: async (e) => {
 				try {
-					const out = await action(e);
+					const out: unknown = await action(e);
 					reply = isActionFailure(out)
 						? { status: out.status, data: out.data as Record<string, unknown> }
-						: {
-								status: 200,
-								data: (out ?? undefined) as unknown as Record<string, unknown> | undefined
-							};
+						: { status: 200, data: (out ?? undefined) as Record<string, unknown> | undefined };
 				} catch (err) {
 					if (isRedirect(err)) reply = { status: err.status, location: err.location };
 					else if (isHttpError(err)) reply = { status: err.status, text: err.body.message };
