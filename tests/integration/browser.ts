@@ -127,7 +127,7 @@ export class Browser {
 				try {
 					const out: unknown = await action(e);
 					reply = isActionFailure(out)
-						? { status: out.status, data: out.data as Record<string, unknown> }
+						? { status: out.status, data: out.data as unknown as Record<string, unknown> }
 						: { status: 200, data: (out ?? undefined) as Record<string, unknown> | undefined };
 				} catch (err) {
 					if (isRedirect(err)) reply = { status: err.status, location: err.location };

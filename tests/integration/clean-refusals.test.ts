@@ -52,7 +52,7 @@ describe('refused cleanly', () => {
 		});
 		expect(await post('http://127.0.0.1/v/crypt/rooms?x=1')).toMatchObject({
 			status: 303,
-			location: '/v/crypt/rooms'
+			location: '/v/crypt/rooms?x=1'
 		});
 		expect(await post()).toMatchObject({ status: 303, location: '/' });
 	});

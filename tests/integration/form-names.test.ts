@@ -10,7 +10,7 @@ import { asSession, callAction, useTestEnv } from './routes';
 vi.mock('$env/dynamic/private', () => ({ env: process.env }));
 useTestEnv();
 const db = testDb();
-const propPage = await import('../../src/routes/(app)/v/[venue]/props/[prop]/+page.server');
+const propPage = await import('../../src/routes/(app)/v/[venue]/props/[prop=uuid]/+page.server');
 
 const plate = {
 	name: 'Hand plate',

@@ -389,7 +389,7 @@ function paramsFor(t: Target, otherVenue: boolean, picks: number[]) {
 	return out;
 }
 
-type Request = fc.Infer<ReturnType<typeof generators>>;
+type Request = ReturnType<typeof generators> extends fc.Arbitrary<infer T> ? T : never;
 
 async function send(t: Target, r: Request): Promise<Answer> {
 	const params = paramsFor(t, r.otherVenue, r.paramIds);
