@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { calibrate, depthOf } from './calibrate';
+import { CalibrationInputError, calibrate, depthOf } from './calibrate';
 
 function expectRelative(actual: number, expected: number, tolerance = 1e-8) {
 	expect(Math.abs(actual - expected) / Math.abs(expected)).toBeLessThan(tolerance);
@@ -107,7 +107,10 @@ describe('calibrate', () => {
 				idle: { count: 20, mean: 1000, sigma: 0 },
 				present: { count: 20, mean: 1100, sigma: 10 },
 				updateRateHz: 50,
-				driftPerMinute: 0.5
+				driftPerMinute: 0.5,
+				// t = 0.5 / 0.05 = 10 on 18 degrees of freedom, far above t(18) = 2.101 (5 % level)
+				driftStandardErrorPerMinute: 0.05,
+				driftDegreesOfFreedom: 18
 			},
 			{ resolution: 1 }
 		);
@@ -123,6 +126,48 @@ describe('calibrate', () => {
 		]);
 		// the measured drift is passed through unchanged
 		expect(cal.driftPerMinute).toBe(0.5);
+		expect(cal.driftSignificant).toBe(true);
+		const drift = cal.warnings.find((w) => w.code === 'drift')!.message;
+		// exit offset 2.5 * 0.2887 = 0.7217 counts at 0.5 a minute: about 1.4 minutes
+		expect(drift).toMatch(/^The idle reading rises by 0\.5 a minute.*in about 1\.4 minutes\./);
+	});
+
+	it('does not warn of a drift that its scatter explains', () => {
+		const base = {
+			idle: { count: 5000, mean: 1000, sigma: 2 },
+			present: { count: 5000, mean: 1100, sigma: 2 },
+			driftPerMinute: 0.5
+		};
+		// t = 0.5 / 0.4 = 1.25, below 1.96 (normal quantile, large degrees of freedom): not a drift
+		const noisy = calibrate({
+			...base,
+			driftStandardErrorPerMinute: 0.4,
+			driftDegreesOfFreedom: 4998
+		});
+		expect(noisy.driftSignificant).toBe(false);
+		expect(noisy.warnings.map((w) => w.code)).not.toContain('drift');
+		// t = 0.5 / 0.1 = 5: a drift, reaching the 5 count exit offset within the 60 minute horizon
+		const real = calibrate({
+			...base,
+			driftStandardErrorPerMinute: 0.1,
+			driftDegreesOfFreedom: 4998
+		});
+		expect(real.warnings.map((w) => w.code)).toContain('drift');
+		// without a standard error nothing establishes the drift
+		expect(calibrate(base).driftSignificant).toBe(false);
+	});
+
+	it('refuses statistics that are not finite, in words', () => {
+		// readings near 1e308 overflow the variance to Infinity; an average of NaN is no average
+		expect(() =>
+			calibrate({
+				idle: { count: 100, mean: 1e308, sigma: Infinity },
+				present: { count: 100, mean: 900, sigma: 2 }
+			})
+		).toThrow(CalibrationInputError);
+		expect(() => calibrate({ idle, present: { count: 100, mean: NaN, sigma: 1 } })).toThrow(
+			/present readings are too large or too spread out/
+		);
 	});
 
 	it('refuses a capture without both labels', () => {

@@ -1,4 +1,5 @@
 import { normalUpperTail } from './erfc';
+import { slopeIsSignificant } from './student-t';
 
 export interface LabelStats {
 	count: number;
@@ -12,7 +13,14 @@ export interface CalibrationInput {
 	/** Readings per second, for false triggers per hour. */
 	updateRateHz?: number | null;
 	driftPerMinute?: number | null;
+	/** Standard error of the drift slope; without it a drift is never taken as established. */
+	driftStandardErrorPerMinute?: number | null;
+	/** Degrees of freedom of the drift fit (idle readings - 2). */
+	driftDegreesOfFreedom?: number | null;
 }
+
+/** Statistics that cannot be calibrated on, in words for the person who uploaded them. */
+export class CalibrationInputError extends RangeError {}
 
 export interface CalibrationOptions {
 	/** Enter threshold distance from the idle mean, in idle sigmas. */
@@ -66,6 +74,8 @@ export interface Calibration {
 	/** Chance one present update falls short of the enter threshold. */
 	missProbability: number;
 	driftPerMinute: number | null;
+	/** True when the drift differs from none at the 5 % level (t test on the slope). */
+	driftSignificant: boolean;
 	depth: DepthMapping;
 	warnings: CalibrationWarning[];
 }
@@ -82,7 +92,9 @@ const MAX_MISS_PROBABILITY = 0.01;
 const DRIFT_HORIZON_MINUTES = 60;
 
 function fmt(value: number, digits = 3): string {
-	return Number(value.toPrecision(digits)).toString();
+	return Number(value.toPrecision(digits)).toLocaleString('en', {
+		maximumSignificantDigits: digits
+	});
 }
 
 /**
@@ -108,6 +120,17 @@ export function calibrate(input: CalibrationInput, options: CalibrationOptions =
 	const { idle, present } = input;
 	if (!(idle.count > 0 && present.count > 0))
 		throw new RangeError('calibration needs both idle and present readings');
+	for (const [label, stats] of [
+		['idle', idle],
+		['present', present]
+	] as const) {
+		if (!Number.isFinite(stats.mean) || !Number.isFinite(stats.sigma) || stats.sigma < 0)
+			throw new CalibrationInputError(
+				`The ${label} readings are too large or too spread out to work with (their ${
+					Number.isFinite(stats.mean) ? 'spread' : 'average'
+				} cannot be computed). Check the file holds timer counts or sensor readings, not something else.`
+			);
+	}
 	const warnings: CalibrationWarning[] = [];
 	for (const [label, stats] of [
 		['idle', idle],
@@ -116,7 +139,7 @@ export function calibrate(input: CalibrationInput, options: CalibrationOptions =
 		if (stats.count < MIN_READINGS)
 			warnings.push({
 				code: 'few-readings',
-				message: `only ${stats.count} ${label} readings; capture at least ${MIN_READINGS}`
+				message: `Only ${stats.count} ${label} readings: capture at least ${MIN_READINGS}.`
 			});
 	}
 
@@ -127,7 +150,7 @@ export function calibrate(input: CalibrationInput, options: CalibrationOptions =
 	if ((idle.sigma || 0) < floor || (present.sigma || 0) < floor)
 		warnings.push({
 			code: 'sigma-floor',
-			message: `a sigma below the quantisation noise of ${fmt(floor)} was raised to it`
+			message: `A spread (sigma) below the reading's own rounding noise of ${fmt(floor)} was raised to it.`
 		});
 
 	const direction: Direction = present.mean >= idle.mean ? 'up' : 'down';
@@ -140,7 +163,7 @@ export function calibrate(input: CalibrationInput, options: CalibrationOptions =
 	if (k * idleSigma > balance)
 		warnings.push({
 			code: 'enter-at-balance',
-			message: `${fmt(k)} idle sigmas reach past the balance point between the means, so the enter threshold sits at the balance point (${fmt(enterOffset / idleSigma)} sigmas)`
+			message: `${fmt(k)} idle sigmas would reach past the point halfway between idle and present, so the enter threshold sits there instead (${fmt(enterOffset / idleSigma)} sigmas from idle).`
 		});
 	const exitOffset = exitFraction * enterOffset;
 	const enter = idle.mean + sign * enterOffset;
@@ -155,30 +178,40 @@ export function calibrate(input: CalibrationInput, options: CalibrationOptions =
 	if (separation < LOW_SEPARATION)
 		warnings.push({
 			code: 'low-separation',
-			message: `separation d' ${fmt(separation)} is too small to calibrate reliably (needs ${LOW_SEPARATION} or more); move the plate closer, shield it, or average more samples`
+			message: `The separation d′ of ${fmt(separation)} is too small to calibrate reliably (it needs ${LOW_SEPARATION} or more). Move the plate closer, shield it, or average more readings.`
 		});
 	else if (separation < MARGINAL_SEPARATION)
 		warnings.push({
 			code: 'marginal-separation',
-			message: `separation d' ${fmt(separation)} is marginal; expect false triggers or misses`
+			message: `The separation d′ of ${fmt(separation)} is marginal: expect false triggers or misses.`
 		});
 	if (falseTriggersPerHour !== null && falseTriggersPerHour > MAX_FALSE_TRIGGERS_PER_HOUR)
 		warnings.push({
 			code: 'false-triggers',
-			message: `about ${fmt(falseTriggersPerHour)} false triggers per hour`
+			message: `Expect about ${fmt(falseTriggersPerHour)} false triggers an hour.`
 		});
 	if (missProbability > MAX_MISS_PROBABILITY)
 		warnings.push({
 			code: 'misses',
-			message: `${fmt(missProbability * 100)} % of present readings fall short of the enter threshold`
+			message: `${fmt(missProbability * 100)} % of present readings fall short of the enter threshold.`
 		});
 
 	const drift = input.driftPerMinute ?? null;
-	if (drift !== null && Math.abs(drift) * DRIFT_HORIZON_MINUTES > exitOffset)
+	// A slope is only a drift when it stands out from the scatter about it (t test, 5 % level).
+	const driftSignificant =
+		drift !== null &&
+		slopeIsSignificant(
+			drift,
+			input.driftStandardErrorPerMinute ?? NaN,
+			input.driftDegreesOfFreedom ?? NaN
+		);
+	if (driftSignificant && Math.abs(drift!) * DRIFT_HORIZON_MINUTES > exitOffset) {
+		const minutes = exitOffset / Math.abs(drift!);
 		warnings.push({
 			code: 'drift',
-			message: `the idle baseline drifts ${fmt(drift)} per minute and would reach the exit threshold within ${DRIFT_HORIZON_MINUTES} minutes; track the baseline in firmware or recalibrate`
+			message: `The idle reading ${drift! > 0 ? 'rises' : 'falls'} by ${fmt(Math.abs(drift!))} a minute, more than its scatter explains, so it would reach the exit threshold in about ${fmt(Math.max(minutes, 1), 2)} minutes. Track the baseline in the board's code, or calibrate again before each show.`
 		});
+	}
 
 	return {
 		direction,
@@ -193,6 +226,7 @@ export function calibrate(input: CalibrationInput, options: CalibrationOptions =
 		falseTriggersPerHour,
 		missProbability,
 		driftPerMinute: drift,
+		driftSignificant,
 		depth: { far: exit, near: present.mean },
 		warnings
 	};

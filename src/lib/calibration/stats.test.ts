@@ -141,3 +141,61 @@ describe('histogram', () => {
 		expect(h.present.counts.reduce((a, b) => a + b, 0)).toBe(50);
 	});
 });
+
+describe('LineFit standard error', () => {
+	// Anscombe (1973), "Graphs in Statistical Analysis", The American Statistician 27(1), data set I
+	// (the same numbers ship as R's datasets::anscombe): slope 0.500, intercept 3.00, standard error
+	// of the slope 0.118, t = 4.24, residual sum of squares 13.76.
+	const x = [10, 8, 13, 9, 11, 14, 6, 4, 12, 7, 5];
+	const y = [8.04, 6.95, 7.58, 8.81, 8.33, 9.96, 7.24, 4.26, 10.84, 4.82, 5.68];
+
+	it("reproduces Anscombe's published fit of data set I", () => {
+		const fit = new LineFit();
+		x.forEach((xi, i) => fit.add(xi, y[i]));
+		expect(fit.slope).toBeCloseTo(0.5, 3);
+		expect(fit.intercept).toBeCloseTo(3.0, 2);
+		expect(fit.slopeStandardError).toBeCloseTo(0.118, 3);
+		expect(fit.slope / fit.slopeStandardError).toBeCloseTo(4.24, 2);
+		expect(fit.residualDf).toBe(9);
+	});
+
+	it('gives the same figures far from the origin', () => {
+		// shifting x and y leaves slope and standard error unchanged (least squares is shift invariant)
+		const fit = new LineFit();
+		x.forEach((xi, i) => fit.add(1e7 + xi, 5e5 + y[i]));
+		expect(fit.slope).toBeCloseTo(0.5001, 4);
+		expect(fit.slopeStandardError).toBeCloseTo(0.1179, 4);
+	});
+
+	it('has no standard error with fewer than three points', () => {
+		const fit = new LineFit();
+		fit.add(0, 0);
+		fit.add(1, 1);
+		expect(fit.slopeStandardError).toBeNaN();
+	});
+});
+
+describe('CaptureStats update rate and drift error', () => {
+	it('uses the measured rate of a timed capture, not the estimate it was given', () => {
+		// rows over the time span: 999 rows after the first over 99.9 s = 10 per second
+		const stats = new CaptureStats({ updateRateHz: 50 });
+		for (let i = 0; i < 1000; i++) stats.add({ time: i * 0.1, reading: 700, label: 'idle' });
+		const summary = stats.summary();
+		expect(summary.updateRateHz).toBeCloseTo(10, 10);
+		// a flat baseline: slope 0 with no scatter, so a standard error of 0
+		expect(summary.driftPerMinute).toBeCloseTo(0, 10);
+		expect(summary.driftDegreesOfFreedom).toBe(998);
+	});
+
+	it('scales the slope and its standard error to per minute alike', () => {
+		// Anscombe data set I as idle readings one second apart: slope 0.5001 per second, SE 0.1179
+		const x = [10, 8, 13, 9, 11, 14, 6, 4, 12, 7, 5];
+		const y = [8.04, 6.95, 7.58, 8.81, 8.33, 9.96, 7.24, 4.26, 10.84, 4.82, 5.68];
+		const stats = new CaptureStats();
+		x.forEach((t, i) => stats.add({ time: t, reading: y[i], label: 'idle' }));
+		const summary = stats.summary();
+		expect(summary.driftPerMinute! / 60).toBeCloseTo(0.5001, 4);
+		expect(summary.driftStandardErrorPerMinute! / 60).toBeCloseTo(0.1179, 4);
+		expect(summary.driftDegreesOfFreedom).toBe(9);
+	});
+});

@@ -82,21 +82,39 @@ export class ReadingStats {
 	}
 }
 
-/** Least-squares straight line y = intercept + slope * x, built one point at a time. */
+/**
+ * Least-squares straight line y = intercept + slope * x, built one point at a time, with the
+ * slope's standard error (NIST/SEMATECH e-Handbook 4.4.4: s^2 = SSE / (n - 2), SE = s / sqrt Sxx).
+ */
 export class LineFit {
 	count = 0;
 	private meanX = 0;
 	private meanY = 0;
 	private sxx = 0;
 	private sxy = 0;
+	private syy = 0;
 
 	add(x: number, y: number): void {
 		this.count++;
 		const dx = x - this.meanX;
+		const dy = y - this.meanY;
 		this.meanX += dx / this.count;
-		this.meanY += (y - this.meanY) / this.count;
+		this.meanY += dy / this.count;
 		this.sxx += dx * (x - this.meanX);
 		this.sxy += dx * (y - this.meanY);
+		this.syy += dy * (y - this.meanY);
+	}
+
+	/** Degrees of freedom left for the residuals: n - 2. */
+	get residualDf(): number {
+		return Math.max(0, this.count - 2);
+	}
+
+	/** NaN until three points with two different x values have been seen. */
+	get slopeStandardError(): number {
+		if (this.count < 3 || !(this.sxx > 0)) return NaN;
+		const sse = Math.max(0, this.syy - (this.sxy * this.sxy) / this.sxx);
+		return Math.sqrt(sse / (this.count - 2) / this.sxx);
 	}
 
 	/** NaN until two different x values have been seen. */
@@ -126,10 +144,14 @@ export interface CaptureSummary {
 	timed: boolean;
 	/** Rows per second over the capture's time span, when timed. */
 	measuredRateHz: number | null;
-	/** The rate given by the caller, else the measured one. */
+	/** The measured rate when the capture has times, else the rate given by the caller. */
 	updateRateHz: number | null;
 	/** Slope of idle readings over time, per minute; null without times or an update rate. */
 	driftPerMinute: number | null;
+	/** Standard error of that slope, per minute; null when drift is. */
+	driftStandardErrorPerMinute: number | null;
+	/** Degrees of freedom of the drift fit (idle rows - 2); null when drift is null. */
+	driftDegreesOfFreedom: number | null;
 }
 
 export interface CaptureStatsOptions extends ReadingStatsOptions {
@@ -181,11 +203,21 @@ export class CaptureStats {
 		const timed = this.rows > 0 && this.untimed === 0;
 		const span = this.lastTime - this.firstTime;
 		const measuredRateHz = timed && this.rows > 1 && span > 0 ? (this.rows - 1) / span : null;
-		const updateRateHz = this.updateRateHz ?? measuredRateHz;
+		// Times in the file say how fast the board really read; the caller's estimate is for files without.
+		const updateRateHz = timed ? measuredRateHz : (this.updateRateHz ?? null);
 		let slopePerSecond = NaN;
-		if (timed) slopePerSecond = this.overTime.slope;
-		else if (this.updateRateHz !== undefined)
-			slopePerSecond = this.overRow.slope * this.updateRateHz;
+		let errorPerSecond = NaN;
+		let fit: LineFit | null = null;
+		if (timed) {
+			fit = this.overTime;
+			slopePerSecond = fit.slope;
+			errorPerSecond = fit.slopeStandardError;
+		} else if (this.updateRateHz !== undefined) {
+			fit = this.overRow;
+			slopePerSecond = fit.slope * this.updateRateHz;
+			errorPerSecond = fit.slopeStandardError * this.updateRateHz;
+		}
+		const drift = Number.isFinite(slopePerSecond);
 		return {
 			rows: this.rows,
 			idle: this.idle.summary(),
@@ -193,7 +225,10 @@ export class CaptureStats {
 			timed,
 			measuredRateHz,
 			updateRateHz,
-			driftPerMinute: Number.isFinite(slopePerSecond) ? slopePerSecond * 60 : null
+			driftPerMinute: drift ? slopePerSecond * 60 : null,
+			driftStandardErrorPerMinute:
+				drift && Number.isFinite(errorPerSecond) ? errorPerSecond * 60 : null,
+			driftDegreesOfFreedom: drift && fit ? fit.residualDf : null
 		};
 	}
 }

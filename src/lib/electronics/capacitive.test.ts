@@ -167,6 +167,28 @@ describe('capacitivePlate', () => {
 		expect(slow.updateRateHz / (1 / (16 * (t + 1e-3)))).toBeCloseTo(1, 12);
 	});
 
+	it('adds the recharge time to each reading and the loop overhead to each update', () => {
+		// timing budget of one update: N * (recharge + discharge + per-reading code) + loop
+		const c = (CODATA_EPS0 * 1.000536 * 0.01) / 0.01 + 10e-12;
+		const t = 1e6 * c * Math.log(5 / 1.1);
+		const r = value(
+			capacitivePlate({ ...plate, samplesAveraged: 8, rechargeTimeS: 10e-6, loopOverheadS: 2e-3 })
+		);
+		expect(r.updateRateHz / (1 / (8 * (10e-6 + t) + 2e-3))).toBeCloseTo(1, 12);
+		const bad = capacitivePlate({ ...plate, loopOverheadS: -1 });
+		expect(bad.ok).toBe(false);
+	});
+
+	it('warns when the idle reading is too coarse to see a hand', () => {
+		// the base plate reads about 57 counts at a prescaler of 8; at 64 it is 8 times fewer (about 7)
+		// below 50 counts one count is over 2 % of the reading (common practice, no published source)
+		expect(value(capacitivePlate(plate)).checks.map((c) => c.code)).toEqual([]);
+		const coarse = value(capacitivePlate({ ...plate, prescaler: 64 }));
+		expect(coarse.counts).toBeCloseTo(value(capacitivePlate(plate)).counts / 8, 9);
+		expect(coarse.checks.map((c) => c.code)).toEqual(['coarse-resolution']);
+		expect(coarse.checks[0].message).toMatch(/^An idle reading of about 7\.\d+ counts is coarse/);
+	});
+
 	it('gives quantisation noise of 1/sqrt(12) counts for one clean reading', () => {
 		// reference-values: quantisation noise of a uniform step q is q/sqrt(12)
 		const r = value(capacitivePlate(plate));

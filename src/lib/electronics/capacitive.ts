@@ -1,4 +1,13 @@
-import { InputChecker, allFinite, failed, fmt, ok, type Check, type Result } from './result';
+import {
+	COMMON_PRACTICE,
+	InputChecker,
+	allFinite,
+	failed,
+	fmt,
+	ok,
+	type Check,
+	type Result
+} from './result';
 
 /** Vacuum permittivity, F/m (CODATA 2018). */
 export const EPS0 = 8.8541878128e-12;
@@ -86,8 +95,12 @@ export type CapacitivePlateInput = {
 	samplesAveraged?: number;
 	/** Noise of a single reading, counts (standard deviation); 0 by default. */
 	readingNoiseCounts?: number;
-	/** Time per reading besides the discharge (recharge, code), s; 0 by default. */
+	/** Time the firmware spends recharging the plate before each reading, s; 0 by default. */
+	rechargeTimeS?: number;
+	/** Other time per reading besides the discharge (code between readings), s; 0 by default. */
 	sampleOverheadS?: number;
+	/** Time once per update besides the readings (the rest of the board's loop), s; 0 by default. */
+	loopOverheadS?: number;
 	/** Fraction of the gap a hand fills for the estimate, 0..1; 0.5 by default. */
 	handFraction?: number;
 	/** Relative permittivity of the hand layer; water-like 80 by default. */
@@ -122,13 +135,16 @@ export type CapacitivePlateReading = {
 	/** 2^bits: a reading at or above this wraps the counter. */
 	timerRangeCounts: number;
 	overflow: boolean;
-	/** Updates per second with N readings averaged back to back. */
+	/** Updates per second: 1 / (N (recharge + discharge + per-reading overhead) + loop overhead). */
 	updateRateHz: number;
 	/** Standard deviation of the averaged reading, counts. */
 	noiseCounts: number;
 	hand: HandEstimate;
 	checks: Check[];
 };
+
+/** Below about this many idle counts a reading is too coarse to see a hand well (common practice). */
+export const COARSE_COUNTS = 50;
 
 // Quantisation of a uniform step of one count has standard deviation 1/sqrt(12).
 const QUANTISATION_VARIANCE = 1 / 12;
@@ -140,6 +156,8 @@ export function capacitivePlate(input: CapacitivePlateInput): Result<CapacitiveP
 	const n = input.samplesAveraged ?? 1;
 	const sigma = input.readingNoiseCounts ?? 0;
 	const overhead = input.sampleOverheadS ?? 0;
+	const recharge = input.rechargeTimeS ?? 0;
+	const loop = input.loopOverheadS ?? 0;
 	const handFraction = input.handFraction ?? 0.5;
 	const handEpsR = input.handEpsR ?? EPS_R_WATER;
 
@@ -157,6 +175,8 @@ export function capacitivePlate(input: CapacitivePlateInput): Result<CapacitiveP
 	check.integer('samplesAveraged', n, 1);
 	check.nonNegative('readingNoiseCounts', sigma);
 	check.nonNegative('sampleOverheadS', overhead);
+	check.nonNegative('rechargeTimeS', recharge);
+	check.nonNegative('loopOverheadS', loop);
 	check.between('handFraction', handFraction, 0, 1);
 	check.atLeast('handEpsR', handEpsR, 1);
 	if (check.clean && input.referenceV >= input.supplyV) {
@@ -174,7 +194,7 @@ export function capacitivePlate(input: CapacitivePlateInput): Result<CapacitiveP
 	const t = r * c * logRatio;
 	const counts = t * secondsToCounts;
 	const countsPerPf = r * logRatio * secondsToCounts * 1e-12;
-	const updateRateHz = 1 / (n * (t + overhead));
+	const updateRateHz = 1 / (n * (recharge + t + overhead) + loop);
 	const noiseCounts = Math.sqrt(sigma ** 2 + QUANTISATION_VARIANCE) / Math.sqrt(n);
 
 	// Series layers: air over (1 - f) of the gap, hand over f of it.
@@ -217,6 +237,16 @@ export function capacitivePlate(input: CapacitivePlateInput): Result<CapacitiveP
 			message: `The discharge lasts ${fmt(counts)} timer counts; raise R or the timer clock.`,
 			basis: 'timer resolution'
 		});
+	} else if (counts < COARSE_COUNTS) {
+		checks.push({
+			level: 'warning',
+			code: 'coarse-resolution',
+			message:
+				`An idle reading of about ${fmt(counts)} counts is coarse: one count is ` +
+				`${Number((100 / counts).toPrecision(2))} % of it, so a hand may move it by only a count or two. ` +
+				'Raise R or the timer clock, or lower the prescaler.',
+			basis: COMMON_PRACTICE
+		});
 	}
 
 	return ok({
@@ -240,5 +270,50 @@ export function capacitivePlate(input: CapacitivePlateInput): Result<CapacitiveP
 			overflow: handOverflow
 		},
 		checks
+	});
+}
+
+/** A plate's settings as a prop form keeps them (cm², mm, pF). */
+export type PlateSettings = {
+	resistanceOhm: number;
+	plateAreaCm2: number;
+	gapMm: number;
+	strayPf: number;
+	samplesAveraged: number;
+	readingNoiseCounts?: number | null;
+	handFraction?: number | null;
+};
+
+/** The controller fields the plate maths reads; times in the units its form keeps (µs, ms). */
+export type PlateController = {
+	supplyV: number;
+	referenceV: number;
+	clockHz: number;
+	prescaler: number;
+	timerBits: number;
+	rechargeUs?: number | null;
+	loopOverheadMs?: number | null;
+};
+
+/** The plate maths for a sensor's settings on its controller. */
+export function plateOnController(
+	s: PlateSettings,
+	c: PlateController
+): Result<CapacitivePlateReading> {
+	return capacitivePlate({
+		resistanceOhm: s.resistanceOhm,
+		plateAreaM2: cm2ToM2(s.plateAreaCm2),
+		gapM: mmToM(s.gapMm),
+		strayCapacitanceF: pfToF(s.strayPf),
+		supplyV: c.supplyV,
+		referenceV: c.referenceV,
+		timerClockHz: c.clockHz,
+		prescaler: c.prescaler,
+		timerBits: c.timerBits,
+		samplesAveraged: s.samplesAveraged,
+		readingNoiseCounts: s.readingNoiseCounts ?? undefined,
+		handFraction: s.handFraction ?? undefined,
+		rechargeTimeS: (c.rechargeUs ?? 0) * 1e-6,
+		loopOverheadS: (c.loopOverheadMs ?? 0) * 1e-3
 	});
 }

@@ -100,6 +100,20 @@ describe('ledString', () => {
 		expect(r.resistorRatingW).toBe(0.125);
 		// LED power Vf*I
 		expect(r.ledPowerW).toBeCloseTo(3.3 * (1.7 / 91), 12);
+		// at the exact 85 ohm the target 20 mA flows: I^2*R = 0.02^2 * 85 = 34 mW (Joule's law)
+		expect(r.exactResistorPowerW).toBeCloseTo(0.034, 12);
+	});
+
+	it("moves the colour's forward-voltage spread with a typed forward voltage", () => {
+		// LED reference chart: red 1.8-2.2 V around a typical 2.0 V; a typed 2.9 V scales it by 1.45
+		// to 2.61-3.19 V. At 5 V and 20 mA: R = 2.1/0.02 = 105 ohm, E24 rounds up to 110 ohm
+		const r = value(ledString({ supplyV: 5, colour: 'red', forwardV: 2.9, currentA: 0.02 }));
+		expect(r.resistorOhms).toBe(110);
+		expect(r.currentRangeA!.atMinForwardV).toBeCloseTo((5 - 2.61) / 110, 12);
+		expect(r.currentRangeA!.atMaxForwardV).toBeCloseTo((5 - 3.19) / 110, 12);
+		// without a typed voltage the chart's own range stands
+		const typical = value(ledString({ supplyV: 5, colour: 'red', currentA: 0.02 }));
+		expect(typical.currentRangeA!.atMaxForwardV).toBeCloseTo((5 - 2.2) / typical.resistorOhms, 12);
 	});
 
 	it('snaps to the series asked for', () => {

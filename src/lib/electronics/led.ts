@@ -77,8 +77,10 @@ export type LedString = {
 	resistorOhms: number;
 	/** Current per string with the snapped resistor, A. */
 	currentA: number;
-	/** I^2*R per resistor, W. */
+	/** I^2*R per resistor, W, with the chosen (series) value. */
 	resistorPowerW: number;
+	/** Headroom^2/R per resistor, W, with the exact value: what the target current would dissipate. */
+	exactResistorPowerW: number;
 	/** Rating to buy: at least twice the dissipation, W; null above the largest stocked rating. */
 	resistorRatingW: number | null;
 	/** Vf*I per LED, W. */
@@ -96,7 +98,12 @@ export type LedString = {
 export function ledString(input: LedStringInput): Result<LedString> {
 	const colour = input.colour ? LED_COLOURS[input.colour] : undefined;
 	const forwardV = input.forwardV ?? colour?.typicalV;
-	const range = input.forwardRangeV ?? (colour ? { minV: colour.minV, maxV: colour.maxV } : null);
+	// A typed forward voltage moves the colour's spread with it, in proportion: a 2.9 V red LED
+	// is not checked against the 1.8-2.2 V of a typical red one.
+	const scale = colour && input.forwardV !== undefined ? input.forwardV / colour.typicalV : 1;
+	const range =
+		input.forwardRangeV ??
+		(colour ? { minV: colour.minV * scale, maxV: colour.maxV * scale } : null);
 	const n = input.ledsInSeries ?? 1;
 	const switchDropV = input.switchDropV ?? 0;
 	const strings = input.strings ?? 1;
@@ -197,6 +204,7 @@ export function ledString(input: LedStringInput): Result<LedString> {
 		resistorOhms,
 		currentA,
 		resistorPowerW,
+		exactResistorPowerW: headroomV ** 2 / exactOhms,
 		resistorRatingW,
 		ledPowerW: forwardV * currentA,
 		strings,

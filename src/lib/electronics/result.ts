@@ -127,15 +127,22 @@ export class InputChecker {
 
 	between(field: string, value: unknown, min: number, max: number): void {
 		if (this.isNumber(field, value) && (value < min || value > max)) {
-			this.issues.push({ field, message: `${fieldWords(field)} must be from ${fmt(min)} to ${fmt(max)}.` });
+			this.issues.push({
+				field,
+				message: `${fieldWords(field)} must be from ${fmt(min)} to ${fmt(max)}.`
+			});
 		}
 	}
 
 	integer(field: string, value: unknown, min: number, max = Number.MAX_SAFE_INTEGER): void {
 		if (!this.isNumber(field, value)) return;
 		if (!Number.isInteger(value) || value < min || value > max) {
-			const range = max === Number.MAX_SAFE_INTEGER ? `${fmt(min)} or more` : `${fmt(min)} to ${fmt(max)}`;
-			this.issues.push({ field, message: `${fieldWords(field)} must be a whole number, ${range}.` });
+			const range =
+				max === Number.MAX_SAFE_INTEGER ? `${fmt(min)} or more` : `${fmt(min)} to ${fmt(max)}`;
+			this.issues.push({
+				field,
+				message: `${fieldWords(field)} must be a whole number, ${range}.`
+			});
 		}
 	}
 

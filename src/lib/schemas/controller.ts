@@ -1,5 +1,9 @@
 import { z } from 'zod';
-import { num, text } from './num';
+import { num, optNum, text } from './num';
+
+/** Blank means none: the board spends no time there. */
+const timeOrNone = (label: string, scale: number, max: number) =>
+	optNum(label, { kind: 'seconds', scale, min: 0, max }).transform((v) => v ?? 0);
 
 export const controllerSchema = z
 	.object({
@@ -11,7 +15,9 @@ export const controllerSchema = z
 		prescaler: num('Prescaler', { int: true, min: 1, max: 65536 }),
 		referenceV: num('Comparator reference', { kind: 'volts', gt: 0, max: 60 }),
 		pinLimitMa: num('Pin current limit', { kind: 'amps', scale: 1e-3, gt: 0, max: 1000 }),
-		supplyRatingA: num('Supply rating', { kind: 'amps', gt: 0, max: 1000 })
+		supplyRatingA: num('Supply rating', { kind: 'amps', gt: 0, max: 1000 }),
+		rechargeUs: timeOrNone('Recharge time', 1e-6, 1e6),
+		loopOverheadMs: timeOrNone('Loop overhead', 1e-3, 10_000)
 	})
 	.refine((c) => c.referenceV < c.supplyV, {
 		message: 'The comparator reference must be below the supply voltage.',

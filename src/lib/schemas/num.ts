@@ -64,9 +64,19 @@ export function num(label: string, opts: NumOpts = {}) {
 
 /** An optional number: blank means none (null). */
 export function optNum(label: string, opts: NumOpts = {}) {
+	const given = num(label, opts);
+	// Not a union: a union would hide the number's own message behind a general one.
 	return z
-		.preprocess(blank, z.union([z.undefined(), num(label, opts)]))
-		.transform((v) => (v === undefined ? null : v)) as unknown as z.ZodType<number | null, unknown>;
+		.unknown()
+		.optional()
+		.transform((raw, ctx) => {
+			if (blank(raw) === undefined) return null;
+			const r = given.safeParse(raw);
+			if (r.success) return r.data;
+			for (const issue of r.error.issues)
+				ctx.addIssue({ code: 'custom', message: issue.message, input: raw });
+			return z.NEVER;
+		}) as unknown as z.ZodType<number | null, unknown>;
 }
 
 export const text = (label: string, max = 80) =>

@@ -59,6 +59,10 @@ export const controllers = pgTable(
 		referenceV: doublePrecision('reference_v').notNull(),
 		pinLimitMa: doublePrecision('pin_limit_ma').notNull(),
 		supplyRatingA: doublePrecision('supply_rating_a').notNull(),
+		/** Firmware time recharging a capacitive plate before each reading, µs. */
+		rechargeUs: doublePrecision('recharge_us').notNull().default(0),
+		/** The rest of the board's loop, once per update, ms. */
+		loopOverheadMs: doublePrecision('loop_overhead_ms').notNull().default(0),
 		createdAt: createdAt()
 	},
 	(t) => [index('controllers_venue').on(t.venueId, t.name)]

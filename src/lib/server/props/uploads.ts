@@ -7,7 +7,7 @@ import { once } from 'node:events';
 import { fileTypeFromBuffer } from 'file-type';
 import { and, eq } from 'drizzle-orm';
 import { readCapture } from '$lib/calibration/capture';
-import { calibrate, captureHistograms } from '$lib/calibration';
+import { CalibrationInputError, calibrate, captureHistograms } from '$lib/calibration';
 import type { Db } from '$lib/server/db/client';
 import { captures, propFiles, props, sensors } from '$lib/server/db/schema';
 import type { ObjectStore } from '$lib/server/objects';
@@ -107,6 +107,8 @@ export type StoredCaptureSummary = {
 	timed: boolean;
 	updateRateHz: number | null;
 	driftPerMinute: number | null;
+	/** Absent on captures stored before the drift's standard error was kept. */
+	driftStandardErrorPerMinute?: number | null;
 	histograms: ReturnType<typeof captureHistograms>;
 	calibration: ReturnType<typeof calibrate> | null;
 	calibrationProblem: string | null;
@@ -164,12 +166,19 @@ export async function ingestCapture(opts: {
 		let calibration = null;
 		let calibrationProblem: string | null = null;
 		if (s.idle.count > 0 && s.present.count > 0) {
-			calibration = calibrate({
-				idle: s.idle,
-				present: s.present,
-				updateRateHz: s.updateRateHz,
-				driftPerMinute: s.driftPerMinute
-			});
+			try {
+				calibration = calibrate({
+					idle: s.idle,
+					present: s.present,
+					updateRateHz: s.updateRateHz,
+					driftPerMinute: s.driftPerMinute,
+					driftStandardErrorPerMinute: s.driftStandardErrorPerMinute,
+					driftDegreesOfFreedom: s.driftDegreesOfFreedom
+				});
+			} catch (e) {
+				if (!(e instanceof CalibrationInputError)) throw e;
+				calibrationProblem = e.message;
+			}
 		} else calibrationProblem = 'The capture needs both idle and present readings to calibrate.';
 		const strip = ({ count, mean, sigma, min, max }: typeof s.idle) => ({
 			count,
@@ -184,6 +193,7 @@ export async function ingestCapture(opts: {
 			timed: s.timed,
 			updateRateHz: s.updateRateHz,
 			driftPerMinute: s.driftPerMinute,
+			driftStandardErrorPerMinute: s.driftStandardErrorPerMinute,
 			histograms: captureHistograms(s),
 			calibration,
 			calibrationProblem

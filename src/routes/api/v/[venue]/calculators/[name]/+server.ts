@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireRole } from '$lib/server/auth/guard';
 import { readJson } from '$lib/server/props/api';
-import { capacitivePlate, cm2ToM2, mmToM, pfToF } from '$lib/electronics';
+import { plateOnController } from '$lib/electronics';
 import { controllerSchema } from '$lib/schemas/controller';
 import { capacitiveSettings } from '$lib/schemas/sensor';
 import { curveSchema, ledStringSettings, relaySettings } from '$lib/schemas/output';
@@ -27,22 +27,7 @@ export const POST: RequestHandler = async (event) => {
 			);
 			if (!body.ok) return body.response;
 			const { settings: s, controller: c } = body.data;
-			return json(
-				capacitivePlate({
-					resistanceOhm: s.resistanceOhm,
-					plateAreaM2: cm2ToM2(s.plateAreaCm2),
-					gapM: mmToM(s.gapMm),
-					strayCapacitanceF: pfToF(s.strayPf),
-					supplyV: c.supplyV,
-					referenceV: c.referenceV,
-					timerClockHz: c.clockHz,
-					prescaler: c.prescaler,
-					timerBits: c.timerBits,
-					samplesAveraged: s.samplesAveraged,
-					readingNoiseCounts: s.readingNoiseCounts,
-					handFraction: s.handFraction
-				})
-			);
+			return json(plateOnController(s, c));
 		}
 		case 'led-string': {
 			const body = await readJson(event.request, z.object({ settings: ledStringSettings }));

@@ -8,7 +8,7 @@ import { captures, sensors } from '$lib/server/db/schema';
 import { objectStore } from '$lib/server/objects';
 import { getController, getProp, isUuid } from '$lib/server/props/queries';
 import { ingestCapture } from '$lib/server/props/uploads';
-import { capacitivePlate, cm2ToM2, mmToM, pfToF } from '$lib/electronics';
+import { plateOnController } from '$lib/electronics';
 import type { RequestHandler } from './$types';
 
 async function findSensor(venueId: string, propId: string, sensorId: string) {
@@ -40,23 +40,12 @@ export const POST: RequestHandler = async (event) => {
 	const venue = requireRole(event, ...EDITORS);
 	const found = await findSensor(venue.id, event.params.prop, event.params.sensor);
 	if (!found) return json({ message: 'There is no such sensor.' }, { status: 404 });
-	// A capacitive plate's update rate comes from its maths; other kinds from the capture's times.
+	// A capture without times is placed in time at the plate maths' update rate; a timed one at its own.
 	let updateRateHz: number | null = null;
 	const s = found.sensor.settings;
 	const controller = await getController(db, venue.id, found.prop.controllerId);
 	if (s.kind === 'capacitive' && controller) {
-		const plate = capacitivePlate({
-			resistanceOhm: s.resistanceOhm,
-			plateAreaM2: cm2ToM2(s.plateAreaCm2),
-			gapM: mmToM(s.gapMm),
-			strayCapacitanceF: pfToF(s.strayPf),
-			supplyV: controller.supplyV,
-			referenceV: controller.referenceV,
-			timerClockHz: controller.clockHz,
-			prescaler: controller.prescaler,
-			timerBits: controller.timerBits,
-			samplesAveraged: s.samplesAveraged
-		});
+		const plate = plateOnController(s, controller);
 		if (plate.ok) updateRateHz = plate.value.updateRateHz;
 	}
 	const result = await ingestCapture({

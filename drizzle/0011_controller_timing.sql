@@ -1,0 +1,2 @@
+ALTER TABLE "controllers" ADD COLUMN "recharge_us" double precision DEFAULT 0 NOT NULL;--> statement-breakpoint
+ALTER TABLE "controllers" ADD COLUMN "loop_overhead_ms" double precision DEFAULT 0 NOT NULL;
