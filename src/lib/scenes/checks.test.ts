@@ -128,6 +128,81 @@ describe('flash rate (WCAG 2.x SC 2.3.1)', () => {
 	});
 });
 
+describe('flash rate of a room seen together (WCAG 2.x SC 2.3.1)', () => {
+	// WCAG 2.3.1 counts the flashes a viewer sees in any one second; every light of a scene is in
+	// the same room, so their flash transitions are pooled, and changes at the same moment count once.
+	it('counts two 2 Hz strobes out of step as 4 flashes a second together', () => {
+		// each alone: 2 Hz = 4 transitions a second = 2 flashes, under the limit of 3
+		const findings = checkScene(scene([cue('a', 1000, strobe(2)), cue('b', 1125, strobe(2))]), [
+			led('a'),
+			led('b')
+		]);
+		const flash = codes(findings, 'flash-rate');
+		expect(flash).toHaveLength(1);
+		expect(flash[0].message).toMatch(
+			/^Together, 'LEDs a' and 'LEDs b' flash 4 times in one second/
+		);
+		expect(flash[0].outputIds).toEqual(['a', 'b']);
+		expect(needsStrobeSignage(findings)).toBe(true);
+	});
+
+	it('counts lights that change at the same moment as one', () => {
+		// the same 2 Hz in step: the viewer sees 2 flashes a second
+		const findings = checkScene(scene([cue('a', 1000, strobe(2)), cue('b', 1000, strobe(2))]), [
+			led('a'),
+			led('b')
+		]);
+		expect(codes(findings, 'flash-rate')).toEqual([]);
+	});
+
+	it('pools a strobe relay with the LEDs', () => {
+		// a 2 Hz LED strobe (2 flashes a second) and a strobe light pulsed twice a second between
+		// its changes (2 flashes): 4 together
+		const pulses = [0, 1].map((k) =>
+			cue('s', 1062.5 + k * 500, { type: 'pulse', durationMs: 100 })
+		);
+		const findings = checkScene(scene([cue('a', 1000, strobe(2)), ...pulses]), [
+			led('a'),
+			relay('s', { relayKind: 'strobe' })
+		]);
+		const flash = codes(findings, 'flash-rate');
+		expect(flash).toHaveLength(1);
+		expect(flash[0].message).toMatch(/flash 4 times in one second/);
+		expect(flash[0].outputIds).toEqual(['a', 's']);
+	});
+
+	it('warns that a light jumping at a sensor depth can flicker as fast as the reading wavers', () => {
+		const response = (extra: Record<string, unknown>) => ({
+			id: 'r',
+			sensorId: 'hand',
+			outputId: 'a',
+			...extra
+		});
+		const check = (extra: Record<string, unknown>) =>
+			codes(checkScene(scene([], { responses: [response(extra)] }), [led('a')]), 'flash-rate');
+		const step = check({ shape: 'step', threshold: 0.6, minLevel: 0.15, maxLevel: 1 });
+		expect(step[0].message).toMatch(
+			/^'LEDs a' jumps between 15 % and 100 % when the sensor reads 60 % deep: a guest lingering/
+		);
+		// a drawn line rising 0.1 to 0.9 across 2 % of depth is a jump too
+		const steep = check({
+			shape: 'points',
+			points: [
+				[0, 0.1],
+				[0.5, 0.1],
+				[0.52, 0.9],
+				[1, 1]
+			]
+		});
+		expect(steep).toHaveLength(1);
+		// a gradual rise follows the hand, and a jump under 10 % of full, or whose darker state is
+		// 0.80 or brighter, is no flash (WCAG 2.x general flash definition)
+		expect(check({ shape: 'rise', minLevel: 0, maxLevel: 1 })).toEqual([]);
+		expect(check({ shape: 'step', minLevel: 0.3, maxLevel: 0.35 })).toEqual([]);
+		expect(check({ shape: 'step', minLevel: 0.8, maxLevel: 1 })).toEqual([]);
+	});
+});
+
 describe('overlapping cues on one output', () => {
 	// Our own rule, no published source: two cues on one output may not act at the same moment.
 	it('flags a set inside a fade and two cues at the same moment', () => {

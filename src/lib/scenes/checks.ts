@@ -6,7 +6,7 @@ import {
 	timelinePoints,
 	type TimelinePoint
 } from './timeline';
-import { responseMaxLevel } from './response';
+import { responseJumps, responseMaxLevel } from './response';
 import type { Cue, Finding, FindingCode, Output, Scene, Severity } from './types';
 
 /** Plan continuous load at no more than 80 % of a supply's rating (common practice). */
@@ -142,7 +142,19 @@ export function flashTransitions(luminance: TimelinePoint[]): number[] {
 
 /** The busiest one-second window of a luminance timeline, counted in flashes. */
 export function maxFlashesPerSecond(luminance: TimelinePoint[]): FlashWindow {
-	const times = flashTransitions(luminance);
+	return busiestSecond(flashTransitions(luminance));
+}
+
+/**
+ * The busiest one-second window of several lights seen together. Their transitions are pooled,
+ * and transitions at the same moment count once: lights that change together make one flash.
+ */
+export function maxFlashesPerSecondTogether(lights: TimelinePoint[][]): FlashWindow {
+	const times = [...new Set(lights.flatMap(flashTransitions))].sort((a, b) => a - b);
+	return busiestSecond(times);
+}
+
+function busiestSecond(times: number[]): FlashWindow {
 	let best = { count: 0, fromMs: 0 };
 	let j = 0;
 	for (let i = 0; i < times.length; i++) {
@@ -243,6 +255,11 @@ export function relayOnPeriods(points: TimelinePoint[]): OnPeriod[] {
 const seconds = (ms: number) => `${Number((ms / 1000).toFixed(2))} s`;
 const amps = (a: number) => `${Number(a.toFixed(2))} A`;
 const count = (n: number) => (Number.isInteger(n) ? String(n) : n.toFixed(1));
+const percent = (level: number) => `${Math.round(level * 100)} %`;
+const depthWords = (depth: number) => `${Math.round(depth * 100)} % deep`;
+/** 'a', 'a and b', 'a, b and c'. */
+const list = (items: string[]) =>
+	items.length < 2 ? items.join('') : `${items.slice(0, -1).join(', ')} and ${items.at(-1)}`;
 const capital = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 const describeCue = (cue: Cue) => `the ${cue.action.type} at ${seconds(cue.startMs)}`;
 const ORDER: Record<Severity, number> = { error: 0, warning: 1, info: 2 };
@@ -372,6 +389,55 @@ export function checkScene(
 				cuesBetween(scene, output.id, worst.fromMs, worst.fromMs + 1000),
 				[output.id]
 			);
+		}
+	}
+	// Every light of a scene is in the same room and so in the guests' view at once: WCAG 2.3.1
+	// counts the flashes a viewer sees, not those of each lamp, so they are counted together too.
+	const lights = used.filter(
+		(o) => o.kind === 'led' || (o.kind === 'relay' && o.relayKind === 'strobe')
+	);
+	const lightPoints = lights.map((output) =>
+		output.kind === 'led'
+			? timelinePoints(scene, output.id, { kind: 'led' }).map((p) => ({
+					tMs: p.tMs,
+					level: luminance(output, p.level)
+				}))
+			: timelinePoints(scene, output.id, { kind: 'relay' })
+	);
+	if (lights.length > 1) {
+		const together = maxFlashesPerSecondTogether(lightPoints);
+		const alone = Math.max(...lightPoints.map((points) => maxFlashesPerSecond(points).flashes));
+		if (together.flashes > MAX_FLASHES_PER_SECOND && together.flashes > alone) {
+			const inWindow = lights.filter((_, i) =>
+				flashTransitions(lightPoints[i]).some(
+					(t) => t >= together.fromMs && t < together.fromMs + 1000
+				)
+			);
+			add(
+				'flash-rate',
+				'warning',
+				`Together, ${list(inWindow.map((o) => name(o.id)))} flash ${count(together.flashes)} times in one second (from ${seconds(together.fromMs)}). Lights in one room are seen at once, so their flashes add up (WCAG 2.3.1): stagger or slow them to 3 or fewer a second, or post photosensitivity warning signage before guests enter.`,
+				inWindow.flatMap((o) => cuesBetween(scene, o.id, together.fromMs, together.fromMs + 1000)),
+				inWindow.map((o) => o.id)
+			);
+		}
+	}
+	// A light that jumps when a sensor crosses a depth flickers as fast as the reading wavers
+	// about that depth (a guest lingering there, or noise): its worst case has no limit.
+	for (const response of scene.responses ?? []) {
+		const output = byId.get(response.outputId);
+		if (!output || output.kind !== 'led') continue;
+		for (const jump of responseJumps(response)) {
+			const [dim, bright] = [luminance(output, jump.low), luminance(output, jump.high)];
+			if (bright - dim < FLASH_CHANGE - TOLERANCE || dim >= FLASH_DARKER_BELOW) continue;
+			add(
+				'flash-rate',
+				'warning',
+				`${name(output.id)} jumps between ${percent(jump.low)} and ${percent(jump.high)} when the sensor reads ${depthWords(jump.depth)}: a guest lingering there, or a wavering reading, can make it flicker more than 3 times a second (WCAG 2.3.1). Give the board's code a dead band or a minimum time between changes, use a gradual shape, or post photosensitivity warning signage before guests enter.`,
+				[],
+				[output.id]
+			);
+			break;
 		}
 	}
 	for (const output of used.filter((o) => o.kind === 'relay' && o.relayKind === 'strobe')) {

@@ -41,11 +41,42 @@ export function responseLevel(response: Response, depth: number): number {
 	}
 }
 
-/** The highest level a guest can drive a response to, at any depth. */
-export function responseMaxLevel(response: Response): number {
+/** The levels a response's line turns at: its lowest and highest are what a guest can reach. */
+export function responseLevels(response: Response): number[] {
 	if (response.shape === 'points') {
 		const pts = responsePoints(response.points);
-		return pts.length ? Math.max(...pts.map((p) => p[1])) : clamp(response.minLevel ?? 0);
+		return pts.length ? pts.map((p) => p[1]) : [clamp(response.minLevel ?? 0)];
 	}
-	return Math.max(clamp(response.minLevel ?? 0), clamp(response.maxLevel ?? 1));
+	return [clamp(response.minLevel ?? 0), clamp(response.maxLevel ?? 1)];
+}
+
+/** Depth spans this small are within a calibrated reading's wavering (common practice). */
+export const JUMP_DEPTH_SPAN = 0.05;
+
+/**
+ * Where a response changes level all at once: a step at its threshold, or a drawn line whose
+ * level changes across no more than JUMP_DEPTH_SPAN of depth.
+ */
+export function responseJumps(response: Response): { depth: number; low: number; high: number }[] {
+	const shape = response.shape ?? 'rise';
+	const low = clamp(response.minLevel ?? 0);
+	const high = clamp(response.maxLevel ?? 1);
+	if (shape === 'step') {
+		const depth = clamp(response.threshold ?? 0.5);
+		return low === high ? [] : [{ depth, low: Math.min(low, high), high: Math.max(low, high) }];
+	}
+	if (shape !== 'points') return [];
+	const pts = responsePoints(response.points);
+	const jumps: { depth: number; low: number; high: number }[] = [];
+	for (let i = 1; i < pts.length; i++) {
+		const [[d0, l0], [d1, l1]] = [pts[i - 1], pts[i]];
+		if (l0 !== l1 && d1 - d0 <= JUMP_DEPTH_SPAN)
+			jumps.push({ depth: (d0 + d1) / 2, low: Math.min(l0, l1), high: Math.max(l0, l1) });
+	}
+	return jumps;
+}
+
+/** The highest level a guest can drive a response to, at any depth. */
+export function responseMaxLevel(response: Response): number {
+	return Math.max(...responseLevels(response));
 }
