@@ -10,8 +10,9 @@ import type { Actions, PageServerLoad } from './$types';
 
 // Public: the sign-in page itself.
 export const load: PageServerLoad = ({ locals, url }) => {
-	const redirectTo = safeRedirect(url.searchParams.get('redirectTo'), { fallback: '/venues' });
-	if (locals.person) redirect(303, redirectTo);
+	// Blank when none was asked for, so signing in lands where the person's venues say.
+	const redirectTo = safeRedirect(url.searchParams.get('redirectTo'), { fallback: '' });
+	if (locals.person) redirect(303, redirectTo || '/venues');
 	// Auth.js sends people back here with ?error=… when an e-mail link is stale or used.
 	const error = url.searchParams.get('error');
 	return {
