@@ -1,4 +1,4 @@
-import { and, eq, gt, lt, sql } from 'drizzle-orm';
+import { and, eq, gt, sql } from 'drizzle-orm';
 import type { Db } from '$lib/server/db/client';
 import { assignments, memberships, shows, venues } from '$lib/server/db/schema';
 import { KEEP_AHEAD_MS, type KeepList } from '$lib/offline/paths';
@@ -31,7 +31,7 @@ export async function keepListFor(db: Db, personId: string, now = new Date()): P
 				eq(assignments.venueId, shows.venueId),
 				eq(shows.status, 'scheduled'),
 				gt(shows.doorsClose, now),
-				lt(sql`coalesce(${assignments.callOverride}, ${shows.crewCall})`, until)
+				sql`coalesce(${assignments.callOverride}, ${shows.crewCall}) < ${until.toISOString()}::timestamptz`
 			)
 		)
 		.orderBy(shows.doorsOpen);
