@@ -66,10 +66,15 @@ async function marked(res: Response): Promise<Response> {
 	});
 }
 
-async function keepCopy(path: string, res: Response) {
+/** Raised by every sign-out, so a copy fetched before it is never put back after it. */
+let generation = 0;
+
+async function keepCopy(path: string, res: Response, since: number) {
 	if (!res.ok || res.type !== 'basic' || res.redirected) return;
+	const copy = await marked(res);
+	if (since !== generation) return;
 	const cache = await caches.open(SAVED_CACHE);
-	await cache.put(here(path), await marked(res));
+	await cache.put(here(path), copy);
 }
 
 async function savedCopy(path: string): Promise<Response | undefined> {
@@ -85,6 +90,7 @@ async function savedAt(path: string): Promise<number | null> {
 
 /** Empty the person's cache: on sign-out, and before keeping someone else's pages. */
 async function forget() {
+	generation++;
 	await caches.delete(SAVED_CACHE);
 }
 
@@ -105,7 +111,7 @@ async function adopt(personId: string) {
  * any partial load). A page that answers with anything but itself (a sign-in redirect, an error)
  * is not kept.
  */
-async function keepPage(path: string) {
+async function keepPage(path: string, since: number) {
 	const fresh = async (p: string) => {
 		const at = await savedAt(p);
 		return at !== null && Date.now() - at < FRESH_MS;
@@ -114,14 +120,15 @@ async function keepPage(path: string) {
 		if (!(await fresh(path))) {
 			const page = await fetch(here(path), { credentials: 'same-origin', redirect: 'manual' });
 			if (!page.ok) return false;
-			await keepCopy(path, page);
+			await keepCopy(path, page, since);
 		}
 		const dataPath = dataPathOf(path);
 		if (!(await fresh(dataPath))) {
 			const data = await fetch(here(dataPath), { credentials: 'same-origin' });
 			const text = data.ok ? await data.clone().text() : '';
 			// A data answer that redirects (to sign-in) or fails is not a copy of the page.
-			if (data.ok && !/^\{"type":"(redirect|error)"/.test(text)) await keepCopy(dataPath, data);
+			if (data.ok && !/^\{"type":"(redirect|error)"/.test(text))
+				await keepCopy(dataPath, data, since);
 		}
 		return true;
 	} catch {
@@ -129,9 +136,9 @@ async function keepPage(path: string) {
 	}
 }
 
-async function keepData(path: string) {
+async function keepData(path: string, since: number) {
 	try {
-		await keepCopy(path, await fetch(here(path), { credentials: 'same-origin' }));
+		await keepCopy(path, await fetch(here(path), { credentials: 'same-origin' }), since);
 	} catch {
 		// No connection: the copy already kept stays.
 	}
@@ -158,8 +165,9 @@ let lastList = 0;
  */
 async function keep(personId: string, visiting: string[]): Promise<string[]> {
 	await adopt(personId);
+	const since = generation;
 	const kept = new Set<string>();
-	for (const path of visiting.filter(isKeptPage)) if (await keepPage(path)) kept.add(path);
+	for (const path of visiting.filter(isKeptPage)) if (await keepPage(path, since)) kept.add(path);
 	let list: KeepList | null = null;
 	if (Date.now() - lastList > FRESH_MS || visiting.length === 0) {
 		try {
@@ -171,8 +179,9 @@ async function keep(personId: string, visiting: string[]): Promise<string[]> {
 	}
 	if (list && list.personId === personId) {
 		lastList = Date.now();
-		for (const path of list.pages) if (isKeptPage(path) && (await keepPage(path))) kept.add(path);
-		for (const path of list.data) if (isKeptData(path)) await keepData(path);
+		for (const path of list.pages)
+			if (isKeptPage(path) && (await keepPage(path, since))) kept.add(path);
+		for (const path of list.data) if (isKeptData(path)) await keepData(path, since);
 		await prune(new Set([...list.pages, ...list.pages.map(dataPathOf), ...list.data]));
 	}
 	const cache = await caches.open(SAVED_CACHE);
@@ -208,11 +217,12 @@ async function networkFirst(
 	keepAnswer: boolean,
 	fallback: () => Promise<Response | undefined>
 ): Promise<Response> {
+	const since = generation;
 	const network = fetch(event.request);
 	if (keepAnswer)
 		event.waitUntil(
 			network
-				.then((res) => keepCopy(path, res.clone()))
+				.then((res) => keepCopy(path, res.clone(), since))
 				.catch(() => {
 					// Nothing new to keep.
 				})

@@ -152,6 +152,15 @@ test('a crew phone without signal: the kept checklist opens, reloads and records
 		.getByText(/results from this phone sent/)
 		.click();
 	await screenshot(phone, 'checklist-sent');
+
+	// Signing out leaves no copy of this person's pages: without signal, the checklist is gone.
+	await phone.getByRole('button', { name: 'Sign out' }).click();
+	await expect(phone).toHaveURL(/\/sign-in/);
+	expect(await phone.evaluate(() => caches.has('gloaming-saved'))).toBe(false);
+	await offline(context, true);
+	await phone.goto(checklistPath);
+	await expect(phone.getByRole('heading', { level: 1, name: 'No signal' })).toBeVisible();
+	await expect(phone.getByText('Pre-show checklist')).toHaveCount(0);
 	await context.close();
 
 	// The show manager's copy: each result stored once, with the time the phone recorded it.
