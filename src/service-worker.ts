@@ -77,9 +77,10 @@ async function keepCopy(path: string, res: Response, since: number) {
 	await cache.put(here(path), copy);
 }
 
+/** The kept copy, if any; looking never makes the cache (after sign-out there is none). */
 async function savedCopy(path: string): Promise<Response | undefined> {
-	const cache = await caches.open(SAVED_CACHE);
-	return cache.match(here(path));
+	if (!(await caches.has(SAVED_CACHE))) return undefined;
+	return caches.match(here(path), { cacheName: SAVED_CACHE });
 }
 
 async function savedAt(path: string): Promise<number | null> {
