@@ -67,6 +67,11 @@ if (!only) step('type check', [
 	'--output',
 	'human'
 ]);
+if (!only) step('type check (service worker)', [
+	'node_modules/typescript/bin/tsc',
+	'-p',
+	'tsconfig.service-worker.json'
+]);
 if (!only) step('lint', ['node_modules/eslint/bin/eslint.js', '.']);
 
 if (only !== 'e2e') {

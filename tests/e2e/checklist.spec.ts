@@ -55,7 +55,9 @@ test('crew checking off pre-show sensor tests: readings on a phone, live progres
 	// Offline in a dark room: the result waits on the phone and is sent once, when signal returns.
 	await crewContext.setOffline(true);
 	await crew.getByRole('button', { name: 'Pass: Exits lit and clear' }).click();
-	await expect(crew.getByText('Waiting to send (1)')).toBeVisible();
+	await expect(
+		crew.getByText('1 result waiting to be sent — they will go when the phone has signal.')
+	).toBeVisible();
 	await crew.reload().catch(() => {});
 	await crewContext.setOffline(false);
 	await crew.goto(`${showPath}/checklist`);

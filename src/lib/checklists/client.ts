@@ -1,5 +1,5 @@
-// Browser helpers for the checklist pages: ids made on the phone, results kept while offline,
-// and the live stream of a show's changes.
+// Browser helpers for the checklist pages: ids made on the phone, results an earlier version kept
+// while offline, and the live stream of a show's changes.
 
 /** A v4 UUID, also where crypto.randomUUID is missing (plain-http addresses on a LAN). */
 export function newClientId(): string {
@@ -11,37 +11,39 @@ export function newClientId(): string {
 	return `${h.slice(0, 8)}-${h.slice(8, 12)}-${h.slice(12, 16)}-${h.slice(16, 20)}-${h.slice(20)}`;
 }
 
-export interface PendingResult {
+/** A result an earlier version of the app kept in localStorage while offline. */
+export interface EarlierPending {
 	clientId: string;
 	checkId: string;
 	outcome?: 'pass' | 'fail';
 	idleReading?: number | null;
 	presentReading?: number | null;
 	note?: string | null;
-	photoKey?: string | null;
-	/** The outcome the phone expects, shown while the result waits to be sent. */
 	expect: 'pass' | 'fail';
 	at: string;
 }
 
 const storeKey = (showId: string) => `gloaming:pending-results:${showId}`;
 
-export function loadPending(showId: string): PendingResult[] {
+/**
+ * Take the results an earlier version of the app left waiting in localStorage for a show, so they
+ * can move to the outbox; they are removed from localStorage only by `dropEarlierPending`.
+ */
+export function earlierPending(showId: string): EarlierPending[] {
 	try {
 		const raw = localStorage.getItem(storeKey(showId));
-		const list = raw ? (JSON.parse(raw) as PendingResult[]) : [];
+		const list = raw ? (JSON.parse(raw) as EarlierPending[]) : [];
 		return Array.isArray(list) ? list : [];
 	} catch {
 		return [];
 	}
 }
 
-export function savePending(showId: string, list: PendingResult[]) {
+export function dropEarlierPending(showId: string) {
 	try {
-		if (list.length) localStorage.setItem(storeKey(showId), JSON.stringify(list));
-		else localStorage.removeItem(storeKey(showId));
+		localStorage.removeItem(storeKey(showId));
 	} catch {
-		// Storage full or refused: the list stays in memory for this visit.
+		// Nothing to drop.
 	}
 }
 

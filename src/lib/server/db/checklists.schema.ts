@@ -118,6 +118,8 @@ export const checkPhotos = pgTable(
 		key: text('key').notNull().unique(),
 		contentType: text('content_type').notNull(),
 		personId: text('person_id').references(() => users.id, { onDelete: 'set null' }),
+		/** Made by the phone before uploading, so a photo sent again after a dropped connection is stored once. */
+		clientId: uuid('client_id').unique(),
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 	},
 	(t) => [index('check_photos_show').on(t.showId)]
