@@ -119,7 +119,10 @@ const pages: {
 
 // axe-core is put into the page once and run there directly: each run through a fresh injection
 // costs about a second, which across every page and both themes was most of the page checks.
-const axeSource = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
+const axeSource = readFileSync(
+	createRequire(import.meta.url).resolve('axe-core/axe.min.js'),
+	'utf8'
+);
 
 /** WCAG 2.1 A and AA; `only` limits the run to some rules. Only violations get full details. */
 async function checkA11y(page: Page, only?: string[]) {
