@@ -10,6 +10,7 @@ import { renderSignInLink } from '$emails/sign-in-link';
 import { db } from '$lib/server/db';
 import { accounts, sessions, users, verificationTokens } from '$lib/server/db/schema';
 import { verifyPassword } from '$lib/server/auth/password';
+import { forgiveSignInTry, takeSignInTry } from '$lib/server/auth/limits';
 import { config } from '$lib/server/config';
 import { sendMail } from '$lib/server/mail/transport';
 import { safeRedirect } from '$lib/util/safe-redirect';
@@ -107,11 +108,66 @@ function withRequest(event: RequestEvent, request: Request): RequestEvent {
 	return { ...event, request, url: new URL(request.url) };
 }
 
-/** Auth.js's own routes under /auth, always on the public address. */
+/**
+ * What a POST to one of Auth.js's routes does, read the way Auth.js reads its paths. Only two
+ * of them sign in or send a link, and both take a try from the sign-in limiter first; sign-out
+ * is let through; any other POST (session updates, sign-in pages of providers we do not have)
+ * is refused, so no other way in can open up behind the limiter's back.
+ */
+export function authPost(pathname: string): 'password' | 'link' | 'sign-out' | 'refused' {
+	const [action, provider, ...rest] = pathname.slice('/auth'.length).split('/').filter(Boolean);
+	if (rest.length) return 'refused';
+	if (action === 'callback' && provider === 'credentials') return 'password';
+	if (action === 'signin' && provider === 'nodemailer') return 'link';
+	if (action === 'signout' && !provider) return 'sign-out';
+	return 'refused';
+}
+
+/** The address a library route was given, as Auth.js will read it (JSON or a form). */
+async function emailIn(request: Request): Promise<string | null> {
+	const type = request.headers.get('content-type') ?? '';
+	let email: unknown = null;
+	try {
+		if (type.includes('application/json')) email = (await request.clone().json())?.email;
+		else if (type.includes('application/x-www-form-urlencoded'))
+			email = new URLSearchParams(await request.clone().text()).get('email');
+	} catch {
+		// An unreadable body: Auth.js cannot read an address from it either.
+	}
+	return typeof email === 'string' && email.trim() ? email.trim().toLowerCase() : null;
+}
+
+/** True when Auth.js answered by setting a session cookie: someone signed in. */
+function setsSession(response: Response) {
+	return response.headers
+		.getSetCookie()
+		.some((line) => /session-token=[^;]/.test(line.split(';')[0]));
+}
+
+/** Auth.js's own routes under /auth: limited like the sign-in page, always on the public address. */
 export const handle: Handle = async ({ event, resolve }) => {
 	if (!event.url.pathname.startsWith('/auth/')) return library.handle({ event, resolve });
 	const request = await onPublicOrigin(event.request);
-	return library.handle({ event: withRequest(event, request), resolve });
+	if (request.method !== 'POST')
+		return library.handle({ event: withRequest(event, request), resolve });
+	const what = authPost(event.url.pathname);
+	if (what === 'refused') return new Response('Not found', { status: 404 });
+	if (what === 'sign-out') return library.handle({ event: withRequest(event, request), resolve });
+	const email = await emailIn(request);
+	const client = event.getClientAddress();
+	const taken = await takeSignInTry(db, what, email, client);
+	if (!taken.ok) {
+		return new Response(taken.message, {
+			status: 429,
+			headers: {
+				'retry-after': String(taken.waitSeconds),
+				'content-type': 'text/plain; charset=utf-8'
+			}
+		});
+	}
+	const response = await library.handle({ event: withRequest(event, request), resolve });
+	if (what === 'password' && setsSession(response)) await forgiveSignInTry(db, what, email, client);
+	return response;
 };
 
 /** Sign in from a form action (the form's fields are passed on to Auth.js). */
