@@ -10,6 +10,14 @@ import { renderSignInLink } from '$emails/sign-in-link';
 import { db } from '$lib/server/db';
 import { accounts, sessions, users, verificationTokens } from '$lib/server/db/schema';
 import { verifyPassword } from '$lib/server/auth/password';
+import {
+	SESSION_IDLE_DAYS,
+	endSession,
+	findSession,
+	sessionCookieName,
+	sessionCookieOptions,
+	startSession
+} from '$lib/server/auth/sessions';
 import { forgiveSignInTry, takeSignInTry } from '$lib/server/auth/limits';
 import { config } from '$lib/server/config';
 import { sendMail } from '$lib/server/mail/transport';
@@ -20,8 +28,26 @@ const credentialsSchema = z.object({
 	password: z.string().min(1).max(200)
 });
 
-const library = SvelteKitAuth(async (): Promise<SvelteKitAuthConfig> => {
+type Codec = NonNullable<SvelteKitAuthConfig['jwt']>;
+type JWT = NonNullable<Awaited<ReturnType<NonNullable<Codec['decode']>>>>;
+
+/** The session cookie carries only a random token that names a row in the sessions table. */
+const sessionCodec = {
+	async encode({ token }: { token?: JWT }) {
+		if (typeof token?.sid !== 'string') throw new Error('A session cookie needs a session.');
+		return token.sid;
+	},
+	async decode({ token }: { token?: string }): Promise<JWT | null> {
+		const found = await findSession(db, token);
+		if (!found || !token) return null;
+		const { person } = found;
+		return { sub: person.id, sid: token, email: person.email, name: person.name };
+	}
+};
+
+function authConfig(): SvelteKitAuthConfig {
 	const { host, port, secure } = config.smtp;
+	const secureCookies = config.production;
 	return {
 		adapter: DrizzleAdapter(db, {
 			usersTable: users,
@@ -29,12 +55,20 @@ const library = SvelteKitAuth(async (): Promise<SvelteKitAuthConfig> => {
 			sessionsTable: sessions,
 			verificationTokensTable: verificationTokens
 		}),
-		// Password sign-in needs JWT sessions; the adapter still keeps people and e-mail tokens.
-		session: { strategy: 'jwt' as const, maxAge: 30 * 24 * 60 * 60 },
+		// Auth.js allows password sign-in only with its "jwt" sessions, so its token is reduced to
+		// our session's random token (sessionCodec): every session is a row that can be ended.
+		session: { strategy: 'jwt' as const, maxAge: SESSION_IDLE_DAYS * 24 * 60 * 60 },
+		jwt: sessionCodec,
+		cookies: {
+			sessionToken: {
+				name: sessionCookieName(secureCookies),
+				options: sessionCookieOptions(secureCookies)
+			}
+		},
 		secret: env.AUTH_SECRET,
 		// The request's own host is never used: every request reaches Auth.js rebuilt on ORIGIN.
 		trustHost: true,
-		useSecureCookies: config.production,
+		useSecureCookies: secureCookies,
 		pages: { signIn: '/sign-in', verifyRequest: '/sign-in/check-email', error: '/sign-in' },
 		providers: [
 			Credentials({
@@ -68,13 +102,29 @@ const library = SvelteKitAuth(async (): Promise<SvelteKitAuthConfig> => {
 			redirect({ url, baseUrl }) {
 				return new URL(safeRedirect(url, { origin: baseUrl, fallback: '/venues' }), baseUrl).href;
 			},
+			// Signing in (by password or link) starts a session row; its token becomes the cookie.
+			async jwt({ token, user }) {
+				if (user?.id) return { sub: user.id, sid: await startSession(db, user.id) };
+				return token;
+			},
 			session({ session, token }) {
 				if (token.sub) session.user.id = token.sub;
 				return session;
 			}
+		},
+		events: {
+			// Both the sign-out form and Auth.js's own sign-out route pass through here.
+			async signOut(message) {
+				if ('token' in message && typeof message.token?.sid === 'string')
+					await endSession(db, message.token.sid);
+			}
 		}
 	};
-});
+}
+
+let built: SvelteKitAuthConfig | null = null;
+// Built once: the settings it reads do not change while the server runs.
+const library = SvelteKitAuth(async () => (built ??= authConfig()));
 
 /** Headers a client or proxy could use to make Auth.js build links on another host. */
 const HOST_HEADERS = [

@@ -33,13 +33,18 @@ export const accounts = pgTable(
 	(t) => [primaryKey({ columns: [t.provider, t.providerAccountId] })]
 );
 
-export const sessions = pgTable('sessions', {
-	sessionToken: text('session_token').primaryKey(),
-	userId: text('user_id')
-		.notNull()
-		.references(() => users.id, { onDelete: 'cascade' }),
-	expires: timestamp('expires', { mode: 'date', withTimezone: true }).notNull()
-});
+/** One row per signed-in browser; session_token is the SHA-256 of the cookie's token. */
+export const sessions = pgTable(
+	'sessions',
+	{
+		sessionToken: text('session_token').primaryKey(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		expires: timestamp('expires', { mode: 'date', withTimezone: true }).notNull()
+	},
+	(t) => [index('sessions_user').on(t.userId)]
+);
 
 export const verificationTokens = pgTable(
 	'verification_tokens',

@@ -8,4 +8,5 @@ CREATE TABLE "sign_in_limits" (
 );
 --> statement-breakpoint
 DROP TABLE "sign_in_attempts" CASCADE;--> statement-breakpoint
-CREATE INDEX "sign_in_limits_last_try" ON "sign_in_limits" USING btree ("last_try_at");
+CREATE INDEX "sign_in_limits_last_try" ON "sign_in_limits" USING btree ("last_try_at");--> statement-breakpoint
+CREATE INDEX "sessions_user" ON "sessions" USING btree ("user_id");
