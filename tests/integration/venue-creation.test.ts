@@ -48,7 +48,7 @@ async function person(label: string) {
 }
 
 const create = (who: Awaited<ReturnType<typeof person>>, venueName: string) =>
-	callAction(page.actions.create, {
+	callAction(page.actions.create as never, {
 		path: '/venues?/create',
 		params: {},
 		person: who,
