@@ -86,18 +86,32 @@ export class Browser {
 	}
 
 	/** A request through the hooks; a path outside /auth answers with the signed-in person. */
-	async fetch(path: string, init: RequestInit = {}): Promise<Reply & { person?: unknown }> {
+	async fetch(
+		path: string,
+		init: RequestInit = {}
+	): Promise<Reply & { person?: unknown; setCookies: string[] }> {
 		const event = this.event(path, init);
 		const handle = await hooks();
+		const set: string[] = [];
+		const cookies = event.cookies;
+		// Record what the hooks set on the page's own cookies too, not only on the response.
+		event.cookies = {
+			...cookies,
+			set: (...args: Parameters<typeof cookies.set>) => {
+				set.push(args[0]);
+				cookies.set(...args);
+			}
+		};
 		const res = await handle({
 			event,
 			resolve: async (e) => Response.json({ person: e.locals.person })
 		});
 		this.takeCookies(res);
+		const setCookies = [...set, ...res.headers.getSetCookie().map((l) => l.split('=')[0])];
 		const text = await res.text();
 		const location = res.headers.get('location') ?? undefined;
-		if (path.startsWith('/auth/')) return { status: res.status, location, text };
-		return { status: res.status, person: JSON.parse(text).person };
+		if (path.startsWith('/auth/')) return { status: res.status, location, text, setCookies };
+		return { status: res.status, person: JSON.parse(text).person, setCookies };
 	}
 
 	/** POST a form to an Auth.js route as a script would, straight past the sign-in page. */

@@ -49,6 +49,10 @@ export const config = {
 			password: env.SMTP_PASSWORD || undefined
 		};
 	},
+	/** GLOAMING_OPEN_VENUES=yes: anyone signed in may create a venue, not only owners. */
+	get openVenues() {
+		return env.GLOAMING_OPEN_VENUES === 'yes';
+	},
 	get production() {
 		return env.NODE_ENV === 'production' && !env.ORIGIN?.startsWith('http://127.0.0.1');
 	}

@@ -1,4 +1,4 @@
-import { boolean, integer, pgTable, primaryKey, text, timestamp } from 'drizzle-orm/pg-core';
+import { index, integer, pgTable, primaryKey, text, timestamp } from 'drizzle-orm/pg-core';
 
 // Tables the Auth.js Drizzle adapter reads and writes, plus our password hash on the person.
 export const users = pgTable('users', {
@@ -33,13 +33,18 @@ export const accounts = pgTable(
 	(t) => [primaryKey({ columns: [t.provider, t.providerAccountId] })]
 );
 
-export const sessions = pgTable('sessions', {
-	sessionToken: text('session_token').primaryKey(),
-	userId: text('user_id')
-		.notNull()
-		.references(() => users.id, { onDelete: 'cascade' }),
-	expires: timestamp('expires', { mode: 'date', withTimezone: true }).notNull()
-});
+/** One row per signed-in browser; session_token is the SHA-256 of the cookie's token. */
+export const sessions = pgTable(
+	'sessions',
+	{
+		sessionToken: text('session_token').primaryKey(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		expires: timestamp('expires', { mode: 'date', withTimezone: true }).notNull()
+	},
+	(t) => [index('sessions_user').on(t.userId)]
+);
 
 export const verificationTokens = pgTable(
 	'verification_tokens',
@@ -51,12 +56,24 @@ export const verificationTokens = pgTable(
 	(t) => [primaryKey({ columns: [t.identifier, t.token] })]
 );
 
-export const signInAttempts = pgTable('sign_in_attempts', {
-	id: integer('id').primaryKey().generatedAlwaysAsIdentity(),
-	/** 'email' or 'address': which key the attempt counts against. */
-	keyKind: text('key_kind').$type<'email' | 'address'>().notNull(),
-	key: text('key').notNull(),
-	method: text('method').$type<'password' | 'email-link'>().notNull(),
-	succeeded: boolean('succeeded').notNull().default(false),
-	at: timestamp('at', { withTimezone: true }).notNull().defaultNow()
-});
+/**
+ * One row per thing sign-in tries are counted against: a person's address or a client, for
+ * passwords and for e-mailed links separately. `tries` counts tries since the row was last quiet
+ * for a while; `open_at` is when the next try is let through (see src/lib/server/auth/limits.ts).
+ */
+export const signInLimits = pgTable(
+	'sign_in_limits',
+	{
+		scope: text('scope')
+			.$type<'password:client' | 'password:person' | 'link:client' | 'link:person'>()
+			.notNull(),
+		key: text('key').notNull(),
+		tries: integer('tries').notNull().default(0),
+		lastTryAt: timestamp('last_try_at', { withTimezone: true }).notNull().defaultNow(),
+		openAt: timestamp('open_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [
+		primaryKey({ columns: [t.scope, t.key] }),
+		index('sign_in_limits_last_try').on(t.lastTryAt)
+	]
+);

@@ -12,6 +12,7 @@ import {
 	users
 } from '../db/schema';
 import { audit } from '../audit';
+import { endSessionsOf } from '../auth/sessions';
 
 export const INVITATION_DAYS = 14;
 
@@ -177,7 +178,8 @@ export async function changeRole(
 
 /**
  * Remove a member; the last owner cannot be removed. Their nights to come, the venue's mail still
- * waiting for them and their calendar link for the venue end with the membership.
+ * waiting for them and their calendar link for the venue end with the membership, and when it was
+ * their last venue, so do their sessions.
  */
 export async function removeMember(db: Db, venueId: string, membershipId: string, actorId: string) {
 	await db.transaction(async (tx) => {
@@ -195,6 +197,13 @@ export async function removeMember(db: Db, venueId: string, membershipId: string
 		}
 		await tx.delete(memberships).where(eq(memberships.id, membershipId));
 		await endVenueAccess(tx, venueId, target.personId, 'left');
+		// Removed from their last venue: nothing is left to be signed in for, so their sessions end.
+		const [elsewhere] = await tx
+			.select({ id: memberships.id })
+			.from(memberships)
+			.where(eq(memberships.personId, target.personId))
+			.limit(1);
+		if (!elsewhere) await endSessionsOf(tx, target.personId);
 		await audit(tx, {
 			venueId,
 			personId: actorId,

@@ -1,8 +1,8 @@
 import { fail, isRedirect, redirect } from '@sveltejs/kit';
 import { AuthError } from '@auth/sveltekit';
-import { signIn } from '../../../auth';
 import { db } from '$lib/server/db';
-import { checkSignInAllowed, recordSignInAttempt } from '$lib/server/auth/rate-limit';
+import { forgiveSignInTry, takeSignInTry } from '$lib/server/auth/limits';
+import { signInWith } from '$lib/server/auth/sign-in';
 import { emailLinkSchema, passwordSignInSchema } from '$lib/schemas/auth';
 import { keep, parseForm } from '$lib/server/forms';
 import { safeRedirect } from '$lib/util/safe-redirect';
@@ -23,39 +23,29 @@ export const load: PageServerLoad = ({ locals, url }) => {
 	};
 };
 
-async function attempt(
-	event: Parameters<Actions[string]>[0],
-	method: 'password' | 'email-link',
-	email: string
-) {
-	const address = event.getClientAddress();
-	const allowed = await checkSignInAllowed(db, method, email, address);
-	if (!allowed.allowed) return { limited: allowed.message, address };
-	return { limited: null, address };
-}
-
 export const actions: Actions = {
 	// Public: signing in is how a person becomes known.
 	password: async (event) => {
-		const parsed = await parseForm(event.request.clone(), passwordSignInSchema);
+		const parsed = await parseForm(event.request, passwordSignInSchema);
 		if (!parsed.ok)
 			return fail(400, {
 				form: 'password',
 				values: keep(parsed.raw, 'password'),
 				errors: parsed.errors
 			});
-		const { email } = parsed.data;
-		const { limited, address } = await attempt(event, 'password', email);
-		if (limited) return fail(429, { form: 'password', values: { email }, message: limited });
+		const { email, password, redirectTo } = parsed.data;
+		const client = event.getClientAddress();
+		const taken = await takeSignInTry(db, 'password', email, client);
+		if (!taken.ok)
+			return fail(429, { form: 'password', values: { email }, message: taken.message });
 		try {
-			await signIn(event);
+			await signInWith(event, 'credentials', { email, password, redirectTo });
 		} catch (e) {
 			if (isRedirect(e)) {
-				await recordSignInAttempt(db, 'password', email, address, true);
+				await forgiveSignInTry(db, 'password', email, client);
 				throw e;
 			}
 			if (e instanceof AuthError) {
-				await recordSignInAttempt(db, 'password', email, address, false);
 				return fail(400, {
 					form: 'password',
 					values: { email },
@@ -68,15 +58,14 @@ export const actions: Actions = {
 	},
 	// Public: asks for a one-time link by e-mail.
 	link: async (event) => {
-		const parsed = await parseForm(event.request.clone(), emailLinkSchema);
+		const parsed = await parseForm(event.request, emailLinkSchema);
 		if (!parsed.ok)
 			return fail(400, { form: 'link', values: keep(parsed.raw), errors: parsed.errors });
-		const { email } = parsed.data;
-		const { limited, address } = await attempt(event, 'email-link', email);
-		if (limited) return fail(429, { form: 'link', values: { email }, message: limited });
-		await recordSignInAttempt(db, 'email-link', email, address, true);
+		const { email, redirectTo } = parsed.data;
+		const taken = await takeSignInTry(db, 'link', email, event.getClientAddress());
+		if (!taken.ok) return fail(429, { form: 'link', values: { email }, message: taken.message });
 		try {
-			await signIn(event);
+			await signInWith(event, 'nodemailer', { email, redirectTo });
 		} catch (e) {
 			if (isRedirect(e)) throw e;
 			console.error('sign-in link could not be sent', e);
