@@ -1,34 +1,59 @@
-/** Wall-clock words for an instant in the venue's time zone. */
-export function localTime(at: Date | string, timeZone: string): string {
-	return new Intl.DateTimeFormat('en-GB', {
-		timeZone,
-		hour: '2-digit',
-		minute: '2-digit',
-		hourCycle: 'h23'
-	}).format(new Date(at));
+// One clock for the whole app: every instant is shown in the venue's time zone, the same way on
+// the server and in the browser, as 'Fri 1 Oct 2027' and '21:41' (24-hour clock).
+
+const formatters = new Map<string, Intl.DateTimeFormat>();
+
+/** Formatters are costly to build; one per zone and style is kept. */
+function formatter(key: string, make: () => Intl.DateTimeFormat): Intl.DateTimeFormat {
+	let f = formatters.get(key);
+	if (!f) formatters.set(key, (f = make()));
+	return f;
 }
+
+const TIME = { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' } as const;
+
+/** Wall-clock words for an instant in the venue's time zone: '21:41'. */
+export function localTime(at: Date | string, timeZone: string): string {
+	return formatter(
+		`time ${timeZone}`,
+		() => new Intl.DateTimeFormat('en-GB', { timeZone, ...TIME })
+	).format(new Date(at));
+}
+
+const WEEKDAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'];
+// Spelt out here rather than taken from the locale data, which differs between versions
+// ('Sep' or 'Sept'), so the server and every browser write the same words.
+const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 
 /** 'Fri 1 Oct 2027' for a local 'YYYY-MM-DD' date. */
 export function localDay(date: string): string {
-	return new Intl.DateTimeFormat('en-GB', {
-		timeZone: 'UTC',
-		weekday: 'short',
-		day: 'numeric',
-		month: 'short',
-		year: 'numeric'
-	})
-		.format(new Date(`${date}T00:00:00Z`))
-		.replace(',', '');
+	const [y, m, d] = date.split('-').map(Number);
+	const weekday = new Date(Date.UTC(y, m - 1, d)).getUTCDay();
+	return `${WEEKDAYS[weekday]} ${d} ${MONTHS[m - 1]} ${y}`;
 }
 
 /** The venue's local date 'YYYY-MM-DD' of an instant. */
-export function localDate(at: Date, timeZone: string): string {
-	return new Intl.DateTimeFormat('en-CA', {
-		timeZone,
-		year: 'numeric',
-		month: '2-digit',
-		day: '2-digit'
-	}).format(at);
+export function localDate(at: Date | string, timeZone: string): string {
+	return formatter(
+		`date ${timeZone}`,
+		() =>
+			new Intl.DateTimeFormat('en-CA', {
+				timeZone,
+				year: 'numeric',
+				month: '2-digit',
+				day: '2-digit'
+			})
+	).format(new Date(at));
+}
+
+/** The day of an instant in the venue's time zone: 'Fri 1 Oct 2027'. */
+export function localDayOf(at: Date | string, timeZone: string): string {
+	return localDay(localDate(at, timeZone));
+}
+
+/** Day and time of an instant in the venue's time zone: 'Fri 1 Oct 2027, 21:41'. */
+export function localDateTime(at: Date | string, timeZone: string): string {
+	return `${localDayOf(at, timeZone)}, ${localTime(at, timeZone)}`;
 }
 
 /** The place a time zone is named after, for sentences: 'America/New_York' → 'New York'. */

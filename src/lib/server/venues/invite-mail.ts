@@ -1,6 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { renderInvitation } from '$emails/invitation';
 import { ROLE_LABELS, type Role } from '$lib/roles';
+import { localDayOf } from '$lib/util/when';
 import { config } from '../config';
 import type { Db } from '../db/client';
 import { users } from '../db/schema';
@@ -14,6 +15,8 @@ function render(o: {
 	role: Role;
 	invitedBy: string;
 	expiresAt: Date;
+	/** The venue's zone: the day it runs out is that venue's day. */
+	timeZone: string;
 }) {
 	const url = new URL(`/invitations/${o.token}`, config.origin).toString();
 	return renderInvitation({
@@ -21,11 +24,7 @@ function render(o: {
 		venueName: o.venueName,
 		roleLabel: ROLE_LABELS[o.role],
 		invitedBy: o.invitedBy,
-		expiresOn: o.expiresAt.toLocaleDateString('en-GB', {
-			day: 'numeric',
-			month: 'long',
-			year: 'numeric'
-		})
+		expiresOn: localDayOf(o.expiresAt, o.timeZone)
 	});
 }
 
@@ -42,6 +41,7 @@ export async function queueInvitationMail(
 		invitedBy: string;
 		invitedById: string;
 		expiresAt: Date;
+		timeZone: string;
 	}
 ) {
 	return queueMail(db, {
@@ -57,7 +57,7 @@ export async function queueInvitationMail(
 /** Re-send an invitation e-mail: the stored body is gone, so the link gets a fresh token. */
 export async function resendInvitationMail(
 	db: Db,
-	venueName: string,
+	venue: { name: string; timeZone: string },
 	original: MailMessage,
 	actor: { id: string; name: string | null; email: string }
 ) {
@@ -72,7 +72,8 @@ export async function resendInvitationMail(
 			: [];
 		return render({
 			token,
-			venueName,
+			venueName: venue.name,
+			timeZone: venue.timeZone,
 			role: invitation.role,
 			invitedBy: inviter?.name ?? inviter?.email ?? actor.name ?? actor.email,
 			expiresAt

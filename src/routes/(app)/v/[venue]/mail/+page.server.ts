@@ -66,7 +66,7 @@ export const actions: Actions = {
 		try {
 			fresh =
 				original.kind === 'invitation'
-					? await resendInvitationMail(db, venue.name, original, person)
+					? await resendInvitationMail(db, venue, original, person)
 					: await resendMail(db, original, person.id);
 		} catch (e) {
 			if (e instanceof MembershipError) return fail(400, { message: e.message });

@@ -59,6 +59,7 @@ export const actions: Actions = {
 				invitationId: created.id,
 				token: created.token,
 				venueName: venue.name,
+				timeZone: venue.timeZone,
 				invitedBy: person.name ?? person.email,
 				invitedById: person.id,
 				expiresAt: created.expiresAt
