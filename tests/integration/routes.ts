@@ -27,6 +27,8 @@ export interface Call {
 	body?: BodyInit | null;
 	json?: unknown;
 	headers?: Record<string, string>;
+	/** The SvelteKit route id, e.g. /(app)/v/[venue]/rooms, for hooks that read it. */
+	routeId?: string;
 }
 
 export interface Answer {
@@ -37,7 +39,8 @@ export interface Answer {
 
 type Handler = (event: RequestEvent) => unknown;
 
-async function eventFor(call: Call): Promise<RequestEvent> {
+/** The event the server would build for a call, with locals filled by the venue hook. */
+export async function eventFor(call: Call): Promise<RequestEvent> {
 	const url = new URL(call.path, 'http://127.0.0.1');
 	const headers = new Headers(call.headers);
 	let body = call.body ?? null;
@@ -56,7 +59,7 @@ async function eventFor(call: Call): Promise<RequestEvent> {
 		request,
 		url,
 		params: call.params,
-		route: { id: null },
+		route: { id: call.routeId ?? null },
 		locals: { person: call.person, venue: null, theme: 'dusk' },
 		cookies: { get: () => undefined, getAll: () => [], set() {}, delete() {}, serialize: () => '' },
 		fetch,
@@ -73,10 +76,16 @@ async function eventFor(call: Call): Promise<RequestEvent> {
 	return event;
 }
 
-async function answerOf(run: () => unknown): Promise<Answer> {
+/** What a handler, load or action answered, with thrown errors and redirects as statuses. */
+export async function answerOf(run: () => unknown): Promise<Answer> {
 	try {
 		const out = await run();
 		if (out instanceof Response) {
+			// An event stream never ends: its status is the answer.
+			if (out.headers.get('content-type')?.startsWith('text/event-stream')) {
+				await out.body?.cancel();
+				return { status: out.status, body: null };
+			}
 			const text = await out.text();
 			let body: Record<string, unknown> | null = null;
 			try {
