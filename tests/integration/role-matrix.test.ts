@@ -51,22 +51,31 @@ process.env.ORIGIN ??= 'http://127.0.0.1:5510';
 process.env.AUTH_SECRET ??= 'test-secret-for-the-role-matrix-0123456789';
 const db = testDb();
 
+/**
+ * The members of the stocked venue: one of each role, and two crew, one assigned to the stocked
+ * show ('crew') and one not ('crewOff'), since crew see only the shows they work.
+ */
+type Seat = Role | 'crewOff';
+const SEATS: Seat[] = [...ROLES, 'crewOff'];
+
 /** The role sets the product defines (design.md, "Users and roles"); guard.ts must agree. */
 const SETS = {
-	member: [...ROLES],
+	member: SEATS,
 	/** Props, controllers, sensors, outputs, scenes, rooms. */
 	editors: ['owner', 'designer'],
 	/** Seasons, shows, positions, assignments, safety items, run sheets, mail. */
 	planners: ['owner', 'show_manager'],
 	owner: ['owner'],
-	/** A show's checklist and run sheets: planners, and whoever is assigned to the show (crew here). */
+	/** A show's checklist and run sheets: planners, and whoever is assigned to the show. */
 	assigned: ['owner', 'show_manager', 'crew'],
+	/** A show's page: every role, but crew only on a show they are assigned to. */
+	crewIfAssigned: ['owner', 'designer', 'show_manager', 'crew'],
 	/**
 	 * Everyone but crew: the season and position pages and the venue's calendar feed (crew see
 	 * their own nights, positions and feed under My nights).
 	 */
 	notCrew: ['owner', 'designer', 'show_manager']
-} satisfies Record<string, Role[]>;
+} satisfies Record<string, Seat[]>;
 
 /**
  * public: no guard (the token in the address, if any, is the permission); person: anyone signed
@@ -172,7 +181,7 @@ const MATRIX: Record<string, Entry> = {
 		actions: { preview: 'planners', save: 'planners', remove: 'planners' }
 	},
 	'/(app)/v/[venue]/shows/[show=uuid]': {
-		load: 'member',
+		load: 'crewIfAssigned',
 		actions: {
 			times: 'planners',
 			status: 'planners',
@@ -268,15 +277,15 @@ function ruleOf(t: Target): Rule | undefined {
 	return entry[t.kind];
 }
 
-type Actor = Role | 'outsider' | 'signedOut';
-const ACTORS: Actor[] = [...ROLES, 'outsider', 'signedOut'];
+type Actor = Seat | 'outsider' | 'signedOut';
+const ACTORS: Actor[] = [...SEATS, 'outsider', 'signedOut'];
 
 function allows(rule: Rule, actor: Actor) {
 	if (rule === 'public') return true;
 	if (actor === 'signedOut') return false;
 	if (rule === 'person') return true;
 	if (rule === 'invitee' || actor === 'outsider') return false;
-	return (SETS[rule] as Role[]).includes(actor);
+	return (SETS[rule] as Seat[]).includes(actor);
 }
 
 const VENUE_404 = 'There is no such venue, or you are not a member of it.';
@@ -289,17 +298,17 @@ let here: Stock;
 const people: Record<string, { id: string; name: string | null; email: string }> = {};
 
 async function stock(): Promise<Stock> {
-	const [owner, designer, showManager, crew, outsider] = await Promise.all(
-		['Odile Fenwick', 'Piet Varga', 'Wren Holloway', 'Ivo Brackenridge', 'Ansel Marsh'].map((n) =>
-			makePerson(db, n)
-		)
+	const names = ['Odile Fenwick', 'Piet Varga', 'Wren Holloway', 'Ivo Brackenridge', 'Tamsin Reed'];
+	const [owner, designer, showManager, crew, crewOff, outsider] = await Promise.all(
+		[...names, 'Ansel Marsh'].map((n) => makePerson(db, n))
 	);
-	Object.assign(people, { owner, designer, show_manager: showManager, crew, outsider });
+	Object.assign(people, { owner, designer, show_manager: showManager, crew, crewOff, outsider });
 	const { venue } = await makeVenue(db, [
 		[owner.id, 'owner'],
 		[designer.id, 'designer'],
 		[showManager.id, 'show_manager'],
-		[crew.id, 'crew']
+		[crew.id, 'crew'],
+		[crewOff.id, 'crew']
 	]);
 	// The outsider owns a venue of their own: a member elsewhere, not here.
 	await makeVenue(db, [[outsider.id, 'owner']]);
@@ -350,7 +359,7 @@ async function stock(): Promise<Stock> {
 	const [post] = await db.insert(positions).values({ venueId: v, name: 'Queue line' }).returning();
 	const { season } = await createSeason(db, v, venue.timeZone, autumn);
 	const [show] = await seasonShows(db, v, season.id);
-	// Crew is assigned to the show; the designer is not.
+	// One crew member is assigned to the show; the designer and the other crew member are not.
 	await db
 		.insert(assignments)
 		.values({ venueId: v, showId: show.id, positionId: post.id, personId: crew.id });
@@ -482,7 +491,7 @@ async function missingRows() {
 		sql`select ${sql.join(parts, sql`, `)}, (select count(*) from memberships where venue_id = ${here.venue.id})::int as memberships`
 	)) as unknown as Record<string, number>[];
 	return Object.entries(row)
-		.filter(([t, n]) => (t === 'memberships' ? n !== 4 : n !== 1))
+		.filter(([t, n]) => (t === 'memberships' ? n !== SEATS.length : n !== 1))
 		.map(([t]) => t);
 }
 
