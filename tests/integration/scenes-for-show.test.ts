@@ -44,7 +44,7 @@ describe('the scenes of a night', () => {
 	});
 
 	it('lists scene changes made after the sign-off, and only those', async () => {
-		const { person, venue, glow, hiss, shelved } = await setUp();
+		const { person, venue, show, glow, hiss, shelved } = await setUp();
 		const signedAt = new Date('2027-10-01T17:30:00Z');
 		await db.insert(sceneChanges).values([
 			{
@@ -76,11 +76,15 @@ describe('the scenes of a night', () => {
 				at: new Date('2027-10-01T18:20:00Z')
 			}
 		]);
-		const late = await changesAfterSignOff(db, venue.id, [glow.id, hiss.id], signedAt);
+		const late = await changesAfterSignOff(db, venue.id, show.id, signedAt);
 		expect(late.map((c) => [c.sceneName, c.summary])).toEqual([
 			['Glow', 'After'],
 			['Hiss', 'Later still']
 		]);
-		expect(await changesAfterSignOff(db, venue.id, [], signedAt)).toEqual([]);
+		await db.insert(showSceneExclusions).values([
+			{ showId: show.id, sceneId: glow.id, venueId: venue.id },
+			{ showId: show.id, sceneId: hiss.id, venueId: venue.id }
+		]);
+		expect(await changesAfterSignOff(db, venue.id, show.id, signedAt)).toEqual([]);
 	});
 });

@@ -117,10 +117,21 @@ export function generateChecklist(input: GenInput): CheckSpec[] {
 		(a, b) => roomOrder(a.roomId) - roomOrder(b.roomId) || a.name.localeCompare(b.name)
 	);
 	const strobeRooms = new Set<string | null>(input.strobeSceneRooms);
+	const byProp = <T extends { propId: string }>(rows: T[]) => {
+		const m = new Map<string, T[]>();
+		for (const r of rows) {
+			const list = m.get(r.propId);
+			if (list) list.push(r);
+			else m.set(r.propId, [r]);
+		}
+		return m;
+	};
+	const sensorsOf = byProp(input.sensors);
+	const outputsOf = byProp(input.outputs);
 	props.forEach((prop, p) => {
 		const at = (n: number) => `${pad(roomOrder(prop.roomId))}|${pad(p)}|${pad(n)}`;
 		let n = 0;
-		for (const s of input.sensors.filter((x) => x.propId === prop.id)) {
+		for (const s of sensorsOf.get(prop.id) ?? []) {
 			let expected: CheckExpected;
 			let detail: string;
 			if (s.calibration) {
@@ -150,7 +161,7 @@ export function generateChecklist(input: GenInput): CheckSpec[] {
 				sortKey: at(n++)
 			});
 		}
-		const outs = input.outputs.filter((x) => x.propId === prop.id);
+		const outs = outputsOf.get(prop.id) ?? [];
 		for (const o of outs) {
 			specs.push({
 				...base,

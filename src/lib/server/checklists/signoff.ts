@@ -2,12 +2,13 @@ import { and, eq } from 'drizzle-orm';
 import { signOffBlockers } from '$lib/checklists/view';
 import type { Db } from '$lib/server/db/client';
 import { props, signOffs, standDowns, type CrewProblemAck } from '$lib/server/db/schema';
-import { showConflicts } from '$lib/server/schedule/shows';
+import { showConflicts, type Conflict } from '$lib/server/schedule/shows';
 import { lockShow } from './record';
 import { isUniqueViolation } from '$lib/server/db/errors';
 import { audit } from '$lib/server/audit';
 import { notifyShow } from './live';
 import { loadChecklist } from './state';
+import { refreshLocked } from './sync';
 import { scenesForShow } from '$lib/server/scenes/for-show';
 
 type Venue = { id: string; slug: string };
@@ -60,8 +61,13 @@ export async function crewProblems(
 	venueId: string,
 	showId: string
 ): Promise<CrewProblemAck[]> {
+	return crewProblemsOf(await showConflicts(db, venueId, showId));
+}
+
+/** The crew problems of a night from its conflicts, keyed as the sign-off form sends them back. */
+export function crewProblemsOf(conflicts: Conflict[]): CrewProblemAck[] {
 	const seen = new Map<string, number>();
-	return (await showConflicts(db, venueId, showId)).map((c) => {
+	return conflicts.map((c) => {
 		const base = `${c.kind}:${c.positionId ?? c.personId ?? ''}`;
 		const n = (seen.get(base) ?? 0) + 1;
 		seen.set(base, n);
@@ -98,6 +104,8 @@ export async function signOff(
 		.transaction(
 			async (tx): Promise<{ ok: true; checks: number; stoodDown: string[] } | SignOffRefusal> => {
 				await lockShow(tx, venue.id, showId);
+				// Sign what the night's scenes make now, not a list from before their last change.
+				await refreshLocked(tx, venue.id, showId);
 				const state = await loadChecklist(tx, venue, showId);
 				if (state.signOff)
 					return { ok: false, message: 'This night is already signed off.', blockers: [] };

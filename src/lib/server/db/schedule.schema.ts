@@ -1,4 +1,5 @@
 import {
+	bigint,
 	boolean,
 	date,
 	index,
@@ -63,6 +64,11 @@ export const shows = pgTable(
 		notes: text('notes'),
 		/** Raised on every change so calendar programs replace their copy (RFC 5545 SEQUENCE). */
 		sequence: integer('sequence').notNull().default(0),
+		/**
+		 * The venue's checklist-inputs number this show's checklist was generated at; null when it
+		 * has none yet or the scenes left out of it changed.
+		 */
+		checklistVersion: bigint('checklist_version', { mode: 'number' }),
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 		// The scenes that run on a night are linked by a show_scenes table once scenes exist.
 	},

@@ -29,6 +29,14 @@ export const venues = pgTable('venues', {
 	safetyContactPhone: text('safety_contact_phone'),
 	/** Run sheets go out this many hours before crew call; 0 turns automatic sending off. */
 	runSheetLeadHours: integer('run_sheet_lead_hours').notNull().default(24),
+	/**
+	 * Raised by triggers whenever something a checklist is generated from changes (scenes, cues,
+	 * responses, props, sensors, outputs, rooms, safety items): a show whose checklist was made
+	 * at an older number is regenerated once, by whoever needs it next.
+	 */
+	checklistInputsVersion: bigint('checklist_inputs_version', { mode: 'number' })
+		.notNull()
+		.default(0),
 	createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 });
 

@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { and, asc, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
 import type { RunSheetData, RunSheetScene, RunSheetWarning } from '$emails/run-sheet';
 import { hazardsOf } from '$lib/props/output-maths';
 import { cueLine, responseLine } from '$lib/runsheets/cues';
@@ -10,16 +10,13 @@ import {
 	assignments,
 	memberships,
 	positions,
-	props,
 	rooms,
-	sensors,
 	shows,
-	standDowns,
 	users,
 	venues
 } from '$lib/server/db/schema';
-import { scenesForShow } from '$lib/server/scenes/for-show';
-import { loadScene, luminanceThroughCurves } from '$lib/server/scenes/model';
+import { loadNight } from '$lib/server/scenes/night';
+import { luminanceThroughCurves } from '$lib/server/scenes/model';
 import { localDay, localTime } from '$lib/util/when';
 
 export type Show = typeof shows.$inferSelect;
@@ -67,47 +64,27 @@ export function hashContent(data: RunSheetData, status: string): string {
 
 /** The scenes of a show with their cues and safety notes, each with its room. */
 async function sceneSheets(db: Db, venue: Venue, showId: string) {
-	const running = await scenesForShow(db, venue.id, showId);
-	if (running.length === 0) return [];
-	const allProps = [...new Set(running.flatMap((s) => s.propIds))];
-	const [roomRows, propRows, downRows] = await Promise.all([
-		db.select({ id: rooms.id, name: rooms.name }).from(rooms).where(eq(rooms.venueId, venue.id)),
-		allProps.length
-			? db
-					.select({ id: props.id, name: props.name })
-					.from(props)
-					.where(and(eq(props.venueId, venue.id), inArray(props.id, allProps)))
-			: [],
-		db
-			.select({ propId: standDowns.propId, reason: standDowns.reason })
-			.from(standDowns)
-			.where(and(eq(standDowns.venueId, venue.id), eq(standDowns.showId, showId)))
+	const [night, roomRows] = await Promise.all([
+		loadNight(db, venue.id, showId),
+		db.select({ id: rooms.id, name: rooms.name }).from(rooms).where(eq(rooms.venueId, venue.id))
 	]);
+	if (night.scenes.length === 0) return [];
 	const roomName = new Map(roomRows.map((r) => [r.id, r.name]));
-	const propName = new Map(propRows.map((p) => [p.id, p.name]));
-	const downReason = new Map(downRows.map((d) => [d.propId, d.reason]));
+	const propName = new Map(night.props.map((p) => [p.id, p.name]));
+	const sensorName = new Map(night.sensors.map((x) => [x.id, x.name]));
+	const downReason = new Map(night.standDowns.map((d) => [d.propId, d.reason]));
 
 	const out: (RunSheetScene & { roomId: string | null; stoodDownProps: string[] })[] = [];
-	for (const s of running) {
-		const loaded = await loadScene(db, venue.id, s.id);
-		if (!loaded) continue;
-		const outputById = new Map(loaded.outputRows.map((o) => [o.id, o]));
-		const sensorIds = [...new Set(loaded.responses.map((r) => r.sensorId))];
-		const sensorRows = sensorIds.length
-			? await db
-					.select({ id: sensors.id, name: sensors.name })
-					.from(sensors)
-					.where(and(eq(sensors.venueId, venue.id), inArray(sensors.id, sensorIds)))
-			: [];
-		const sensorName = new Map(sensorRows.map((x) => [x.id, x.name]));
+	for (const s of night.scenes) {
+		const outputById = new Map(s.outputRows.map((o) => [o.id, o]));
 		const cues = [
-			...loaded.responses.map((r) =>
+			...s.responses.map((r) =>
 				responseLine(
 					outputById.get(r.outputId)?.name ?? 'an output',
 					sensorName.get(r.sensorId) ?? 'a sensor'
 				)
 			),
-			...loaded.cues.map((c) => {
+			...s.cues.map((c) => {
 				const o = outputById.get(c.outputId);
 				return cueLine(c.startMs, c.action, {
 					name: o?.name ?? 'an output',
@@ -117,9 +94,9 @@ async function sceneSheets(db: Db, venue: Venue, showId: string) {
 		];
 
 		const warnings: RunSheetWarning[] = [];
-		const hazards = new Set(loaded.outputRows.flatMap((o) => hazardsOf(o)));
-		const findings = checkScene(loaded.scene, loaded.outputs, {
-			luminance: luminanceThroughCurves(loaded.outputRows)
+		const hazards = new Set(s.outputRows.flatMap((o) => hazardsOf(o)));
+		const findings = checkScene(s.scene, s.outputs, {
+			luminance: luminanceThroughCurves(s.outputRows)
 		});
 		const flashing = findings.some((f) => f.code === 'flash-rate');
 		if (hazards.has('strobe') || needsStrobeSignage(findings))

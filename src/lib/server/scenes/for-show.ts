@@ -1,4 +1,5 @@
-import { and, asc, eq, gt, inArray, notInArray } from 'drizzle-orm';
+import { and, asc, eq, gt, inArray, isNotNull, notInArray, sql } from 'drizzle-orm';
+import { union } from 'drizzle-orm/pg-core';
 import type { Db } from '$lib/server/db/client';
 import {
 	outputs,
@@ -22,66 +23,130 @@ export interface ShowScene {
 	stoodDown: boolean;
 }
 
+type Reader = Pick<Db, 'select' | 'selectDistinct'>;
+
 /**
- * The scenes that run on one show: every scene of the venue marked to run on show nights, less the
- * ones left out of this show. Each comes with the props it uses, found through its cues, responses
- * and trigger sensor.
+ * The ids of the scenes that run on one show, as a subquery: every scene of the venue marked to
+ * run on show nights, less the ones left out of this show. Queries filter by it rather than by a
+ * list of ids, so their parameters do not grow with the number of scenes.
  */
-export async function scenesForShow(db: Db, venueId: string, showId: string): Promise<ShowScene[]> {
-	const excluded = db
-		.select({ id: showSceneExclusions.sceneId })
-		.from(showSceneExclusions)
-		.where(eq(showSceneExclusions.showId, showId));
-	const rows = await db
-		.select({
-			id: scenes.id,
-			name: scenes.name,
-			roomId: scenes.roomId,
-			trigger: scenes.triggerSensorId
-		})
+export function nightSceneIds(db: Reader, venueId: string, showId: string) {
+	return db
+		.select({ id: scenes.id })
 		.from(scenes)
 		.where(
 			and(
 				eq(scenes.venueId, venueId),
 				eq(scenes.runsOnShowNights, true),
-				notInArray(scenes.id, excluded)
+				notInArray(
+					scenes.id,
+					db
+						.select({ id: showSceneExclusions.sceneId })
+						.from(showSceneExclusions)
+						.where(eq(showSceneExclusions.showId, showId))
+				)
 			)
-		)
-		.orderBy(scenes.name);
-	if (rows.length === 0) return [];
-	const ids = rows.map((r) => r.id);
+		);
+}
 
-	const [cueProps, responseSensorProps, responseOutputProps, triggerProps, down] =
+/** Outputs the night's scenes cue or drive from a sensor, as a subquery. */
+export function nightOutputIds(db: Reader, venueId: string, showId: string) {
+	return union(
+		db
+			.select({ id: sceneCues.outputId })
+			.from(sceneCues)
+			.where(inArray(sceneCues.sceneId, nightSceneIds(db, venueId, showId))),
+		db
+			.select({ id: sceneResponses.outputId })
+			.from(sceneResponses)
+			.where(inArray(sceneResponses.sceneId, nightSceneIds(db, venueId, showId)))
+	);
+}
+
+/** Sensors the night's scenes respond to or start from, as a subquery. */
+export function nightSensorIds(db: Reader, venueId: string, showId: string) {
+	return union(
+		db
+			.select({ id: sceneResponses.sensorId })
+			.from(sceneResponses)
+			.where(inArray(sceneResponses.sceneId, nightSceneIds(db, venueId, showId))),
+		db
+			.select({ id: sql<string>`${scenes.triggerSensorId}`.as('id') })
+			.from(scenes)
+			.where(
+				and(
+					isNotNull(scenes.triggerSensorId),
+					inArray(scenes.id, nightSceneIds(db, venueId, showId))
+				)
+			)
+	);
+}
+
+/** Props whose sensors or outputs the night's scenes use, as a subquery. */
+export function nightPropIds(db: Reader, venueId: string, showId: string) {
+	return union(
+		db
+			.select({ id: outputs.propId })
+			.from(outputs)
+			.where(
+				and(eq(outputs.venueId, venueId), inArray(outputs.id, nightOutputIds(db, venueId, showId)))
+			),
+		db
+			.select({ id: sensors.propId })
+			.from(sensors)
+			.where(
+				and(eq(sensors.venueId, venueId), inArray(sensors.id, nightSensorIds(db, venueId, showId)))
+			)
+	);
+}
+
+/**
+ * The scenes that run on one show, each with the props it uses, found through its cues,
+ * responses and trigger sensor: two rounds of statements however many scenes there are.
+ */
+export async function scenesForShow(
+	db: Reader,
+	venueId: string,
+	showId: string
+): Promise<ShowScene[]> {
+	const ids = () => nightSceneIds(db, venueId, showId);
+	const [rows, cueProps, responseSensorProps, responseOutputProps, triggerProps, down] =
 		await Promise.all([
+			db
+				.select({ id: scenes.id, name: scenes.name, roomId: scenes.roomId })
+				.from(scenes)
+				.where(and(eq(scenes.venueId, venueId), inArray(scenes.id, ids())))
+				.orderBy(scenes.name),
 			db
 				.selectDistinct({ sceneId: sceneCues.sceneId, propId: outputs.propId })
 				.from(sceneCues)
 				.innerJoin(outputs, eq(outputs.id, sceneCues.outputId))
-				.where(inArray(sceneCues.sceneId, ids)),
+				.where(inArray(sceneCues.sceneId, ids())),
 			db
 				.selectDistinct({ sceneId: sceneResponses.sceneId, propId: sensors.propId })
 				.from(sceneResponses)
 				.innerJoin(sensors, eq(sensors.id, sceneResponses.sensorId))
-				.where(inArray(sceneResponses.sceneId, ids)),
+				.where(inArray(sceneResponses.sceneId, ids())),
 			db
 				.selectDistinct({ sceneId: sceneResponses.sceneId, propId: outputs.propId })
 				.from(sceneResponses)
 				.innerJoin(outputs, eq(outputs.id, sceneResponses.outputId))
-				.where(inArray(sceneResponses.sceneId, ids)),
+				.where(inArray(sceneResponses.sceneId, ids())),
 			db
 				.select({ sceneId: scenes.id, propId: sensors.propId })
 				.from(scenes)
 				.innerJoin(sensors, eq(sensors.id, scenes.triggerSensorId))
-				.where(inArray(scenes.id, ids)),
+				.where(inArray(scenes.id, ids())),
 			db
 				.select({ propId: standDowns.propId })
 				.from(standDowns)
 				.innerJoin(props, eq(props.id, standDowns.propId))
 				.where(and(eq(standDowns.showId, showId), eq(standDowns.venueId, venueId)))
 		]);
+	if (rows.length === 0) return [];
 
 	const stood = new Set(down.map((d) => d.propId));
-	const bySceneId = new Map<string, Set<string>>(ids.map((id) => [id, new Set()]));
+	const bySceneId = new Map<string, Set<string>>(rows.map((r) => [r.id, new Set()]));
 	for (const link of [
 		...cueProps,
 		...responseSensorProps,
@@ -115,12 +180,11 @@ export interface ChangeAfterSignOff {
  * vouched for the scenes as they were, so these are what nobody has checked.
  */
 export async function changesAfterSignOff(
-	db: Db,
+	db: Reader,
 	venueId: string,
-	sceneIds: string[],
+	showId: string,
 	signedAt: Date
 ): Promise<ChangeAfterSignOff[]> {
-	if (sceneIds.length === 0) return [];
 	return db
 		.select({
 			sceneId: sceneChanges.sceneId,
@@ -134,7 +198,7 @@ export async function changesAfterSignOff(
 		.where(
 			and(
 				eq(sceneChanges.venueId, venueId),
-				inArray(sceneChanges.sceneId, sceneIds),
+				inArray(sceneChanges.sceneId, nightSceneIds(db, venueId, showId)),
 				gt(sceneChanges.at, signedAt)
 			)
 		)

@@ -53,12 +53,19 @@ export interface Conflict {
  * Problems with one show's crew: a person at two posts whose times overlap (in this venue or
  * another), a required position with nobody, a person working a night they said they cannot.
  */
-export async function showConflicts(db: Db, venueId: string, showId: string): Promise<Conflict[]> {
-	const show = await getShow(db, venueId, showId);
+export async function showConflicts(
+	db: Db,
+	venueId: string,
+	showId: string,
+	known: { show?: typeof shows.$inferSelect } = {}
+): Promise<Conflict[]> {
+	const [show, here, posts] = await Promise.all([
+		known.show ?? getShow(db, venueId, showId),
+		showAssignments(db, venueId, showId),
+		listPositions(db, venueId)
+	]);
 	if (!show) return [];
 	const conflicts: Conflict[] = [];
-	const here = await showAssignments(db, venueId, showId);
-	const posts = await listPositions(db, venueId);
 	if (show.status === 'scheduled') {
 		for (const p of posts) {
 			if (p.required && !here.some((a) => a.positionId === p.id)) {
@@ -77,7 +84,7 @@ export async function showConflicts(db: Db, venueId: string, showId: string): Pr
 	// Every assignment of these people, in any venue, on shows that overlap this one's night.
 	const windowStart = new Date(show.crewCall.getTime() - 86_400_000);
 	const windowEnd = show.doorsClose;
-	const theirs = await db
+	const theirsQuery = db
 		.select({
 			id: assignments.id,
 			personId: assignments.personId,
@@ -99,6 +106,17 @@ export async function showConflicts(db: Db, venueId: string, showId: string): Pr
 				gt(shows.doorsClose, windowStart)
 			)
 		);
+	const awayQuery = db
+		.select({ personId: unavailability.personId })
+		.from(unavailability)
+		.where(
+			and(
+				eq(unavailability.venueId, venueId),
+				eq(unavailability.date, show.date),
+				inArray(unavailability.personId, people)
+			)
+		);
+	const [theirs, away] = await Promise.all([theirsQuery, awayQuery]);
 	const venueName = new Map(theirs.map((a) => [a.id, a.venueName]));
 	const crew: CrewAssignment[] = theirs.map((a) => ({
 		id: a.id,
@@ -127,16 +145,6 @@ export async function showConflicts(db: Db, venueId: string, showId: string): Pr
 		});
 	}
 
-	const away = await db
-		.select({ personId: unavailability.personId })
-		.from(unavailability)
-		.where(
-			and(
-				eq(unavailability.venueId, venueId),
-				eq(unavailability.date, show.date),
-				inArray(unavailability.personId, people)
-			)
-		);
 	for (const a of away) {
 		conflicts.push({
 			kind: 'unavailable',

@@ -10,45 +10,51 @@ import {
 } from '$lib/server/schedule/shows';
 import { localTime } from '$lib/util/when';
 import { loadChecklist } from '$lib/server/checklists/state';
-import { syncChecklist } from '$lib/server/checklists/sync';
+import { withFreshChecklist } from '$lib/server/checklists/sync';
 import { progressByRoom, stateOf } from '$lib/checklists/view';
 import { runSheetDelivery } from '$lib/server/runsheets/send';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
-	const [details] = await db.select().from(venues).where(eq(venues.id, venue.id));
-	const roomList = await db
-		.select({ id: rooms.id, name: rooms.name })
-		.from(rooms)
-		.where(eq(rooms.venueId, venue.id))
-		.orderBy(asc(rooms.position), asc(rooms.name));
-	const [members] = await db
-		.select({ n: count() })
-		.from(memberships)
-		.where(eq(memberships.venueId, venue.id));
-	const show = await nextShow(db, venue.id);
+	const planner = venue.role === 'owner' || venue.role === 'show_manager';
+	const [[details], roomList, [members], show] = await Promise.all([
+		db.select().from(venues).where(eq(venues.id, venue.id)),
+		db
+			.select({ id: rooms.id, name: rooms.name })
+			.from(rooms)
+			.where(eq(rooms.venueId, venue.id))
+			.orderBy(asc(rooms.position), asc(rooms.name)),
+		db.select({ n: count() }).from(memberships).where(eq(memberships.venueId, venue.id)),
+		nextShow(db, venue.id)
+	]);
 	let next = null;
 	if (show) {
-		const crew = await showAssignments(db, venue.id, show.id);
-		const posts = await listPositions(db, venue.id);
-		const mine = crew.filter((a) => a.personId === event.locals.person!.id);
-		const canOpen = venue.role === 'owner' || venue.role === 'show_manager' || mine.length > 0;
-		let checklist = null;
-		if (canOpen && show.status === 'scheduled') {
-			await syncChecklist(db, venue.id, show.id, { onlyIfEmpty: true });
-			const state = await loadChecklist(db, venue, show.id);
+		const summary = async () => {
+			const state = await withFreshChecklist(db, venue.id, show.id, () =>
+				loadChecklist(db, venue, show.id)
+			);
 			const states = state.checks.map(stateOf);
-			checklist = {
+			return {
 				total: states.length,
 				pass: states.filter((s) => s === 'pass').length,
 				fail: states.filter((s) => s === 'fail').length,
 				rooms: progressByRoom(state.checks),
 				signedBy: state.signOff?.personName ?? null
 			};
-		}
-		const planner = venue.role === 'owner' || venue.role === 'show_manager';
-		const delivery = planner ? await runSheetDelivery(db, venue.id, show.id) : null;
+		};
+		const scheduled = show.status === 'scheduled';
+		// Owners and show managers may open every show: their summary is read alongside the rest.
+		const [crew, posts, delivery, conflicts, plannerChecklist] = await Promise.all([
+			showAssignments(db, venue.id, show.id),
+			listPositions(db, venue.id),
+			planner ? runSheetDelivery(db, venue.id, show.id) : null,
+			venue.role === 'crew' ? [] : showConflicts(db, venue.id, show.id, { show }),
+			planner && scheduled ? summary() : null
+		]);
+		const mine = crew.filter((a) => a.personId === event.locals.person!.id);
+		const canOpen = planner || mine.length > 0;
+		const checklist = plannerChecklist ?? (canOpen && scheduled ? await summary() : null);
 		next = {
 			checklist,
 			runSheets: delivery
@@ -64,7 +70,7 @@ export const load: PageServerLoad = async (event) => {
 			assigned: crew.length,
 			positions: posts.length,
 			myCall: mine.length ? localTime(mine[0].callOverride ?? show.crewCall, venue.timeZone) : null,
-			problems: venue.role === 'crew' ? 0 : (await showConflicts(db, venue.id, show.id)).length,
+			problems: conflicts.length,
 			canOpen: venue.role !== 'crew' || mine.length > 0,
 			canCheck: canOpen
 		};

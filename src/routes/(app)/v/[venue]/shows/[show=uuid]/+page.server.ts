@@ -19,10 +19,10 @@ import {
 	users
 } from '$lib/server/db/schema';
 import { notifyShow } from '$lib/server/checklists/live';
-import { crewProblems, signOff, standDown } from '$lib/server/checklists/signoff';
+import { crewProblemsOf, signOff, standDown } from '$lib/server/checklists/signoff';
 import { loadChecklist } from '$lib/server/checklists/state';
-import { syncChecklist } from '$lib/server/checklists/sync';
-import { changesAfterSignOff, scenesForShow } from '$lib/server/scenes/for-show';
+import { withFreshChecklist } from '$lib/server/checklists/sync';
+import { changesAfterSignOff, nightPropIds, scenesForShow } from '$lib/server/scenes/for-show';
 import { sceneExclusionSchema, signOffSchema, standDownSchema } from '$lib/schemas/checklist';
 import { progressByRoom, signOffBlockers } from '$lib/checklists/view';
 import { keep, parseForm } from '$lib/server/forms';
@@ -42,26 +42,40 @@ export const load: PageServerLoad = async (event) => {
 	const show = await findShow(venue.id, event.params.show);
 	if (!show) error(404, 'There is no such show.');
 	const person = event.locals.person!;
-	const here = await showAssignments(db, venue.id, show.id);
-	if (venue.role === 'crew' && !here.some((a) => a.personId === person.id)) {
+	const planner = PLANNERS.includes(venue.role);
+	// Crew are let in only to their own shows: check that before reading the rest.
+	const assigned = venue.role === 'crew' ? await showAssignments(db, venue.id, show.id) : null;
+	if (assigned && !assigned.some((a) => a.personId === person.id)) {
 		error(403, 'Crew see the shows they are assigned to, under My nights.');
 	}
-	const [season] = show.seasonId
-		? await db
-				.select({ id: seasons.id, name: seasons.name })
-				.from(seasons)
-				.where(and(eq(seasons.id, show.seasonId), eq(seasons.venueId, venue.id)))
-		: [];
-	const members = await db
-		.select({ id: users.id, name: users.name, email: users.email, role: memberships.role })
-		.from(memberships)
-		.innerJoin(users, eq(users.id, memberships.personId))
-		.where(eq(memberships.venueId, venue.id))
-		.orderBy(asc(users.name));
 	const tz = venue.timeZone;
-	await syncChecklist(db, venue.id, show.id);
-	const [checklist, night, left, roomRows] = await Promise.all([
-		loadChecklist(db, venue, show.id),
+	const [
+		here,
+		[season],
+		members,
+		checklist,
+		night,
+		left,
+		roomRows,
+		nightProps,
+		positionList,
+		conflicts,
+		runSheets
+	] = await Promise.all([
+		assigned ?? showAssignments(db, venue.id, show.id),
+		show.seasonId
+			? db
+					.select({ id: seasons.id, name: seasons.name })
+					.from(seasons)
+					.where(and(eq(seasons.id, show.seasonId), eq(seasons.venueId, venue.id)))
+			: [],
+		db
+			.select({ id: users.id, name: users.name, email: users.email, role: memberships.role })
+			.from(memberships)
+			.innerJoin(users, eq(users.id, memberships.personId))
+			.where(eq(memberships.venueId, venue.id))
+			.orderBy(asc(users.name)),
+		withFreshChecklist(db, venue.id, show.id, () => loadChecklist(db, venue, show.id)),
 		scenesForShow(db, venue.id, show.id),
 		db
 			.select({
@@ -76,24 +90,22 @@ export const load: PageServerLoad = async (event) => {
 				and(eq(showSceneExclusions.showId, show.id), eq(showSceneExclusions.venueId, venue.id))
 			)
 			.orderBy(asc(scenes.name)),
-		db.select({ id: rooms.id, name: rooms.name }).from(rooms).where(eq(rooms.venueId, venue.id))
-	]);
-	const roomName = (id: string | null) => roomRows.find((r) => r.id === id)?.name ?? null;
-	const nightPropIds = [...new Set(night.flatMap((s) => s.propIds))];
-	const nightProps = nightPropIds.length
-		? await db
-				.select({ id: props.id, name: props.name })
-				.from(props)
-				.where(and(eq(props.venueId, venue.id), inArray(props.id, nightPropIds)))
-				.orderBy(asc(props.name))
-		: [];
-	const lateChanges = checklist.signOff
-		? await changesAfterSignOff(
-				db,
-				venue.id,
-				night.map((s) => s.id),
-				new Date(checklist.signOff.at)
+		db.select({ id: rooms.id, name: rooms.name }).from(rooms).where(eq(rooms.venueId, venue.id)),
+		db
+			.select({ id: props.id, name: props.name })
+			.from(props)
+			.where(
+				and(eq(props.venueId, venue.id), inArray(props.id, nightPropIds(db, venue.id, show.id)))
 			)
+			.orderBy(asc(props.name)),
+		listPositions(db, venue.id),
+		showConflicts(db, venue.id, show.id, { show }),
+		planner ? runSheetDelivery(db, venue.id, show.id) : null
+	]);
+	const roomNames = new Map(roomRows.map((r) => [r.id, r.name]));
+	const roomName = (id: string | null) => (id ? (roomNames.get(id) ?? null) : null);
+	const lateChanges = checklist.signOff
+		? await changesAfterSignOff(db, venue.id, show.id, new Date(checklist.signOff.at))
 		: [];
 	const down = new Set(checklist.standDowns.map((d) => d.propId));
 	const failing = new Set(
@@ -127,17 +139,17 @@ export const load: PageServerLoad = async (event) => {
 			crewCall: localTime(show.crewCall, tz)
 		},
 		season: season ?? null,
-		positions: await listPositions(db, venue.id),
+		positions: positionList,
 		assignments: here.map((a) => ({
 			...a,
 			call: localTime(a.callOverride ?? show.crewCall, tz),
 			overridden: a.callOverride !== null
 		})),
 		members: members.map((m) => ({ id: m.id, name: m.name ?? m.email })),
-		conflicts: await showConflicts(db, venue.id, show.id),
-		crewProblems: checklist.signOff ? [] : await crewProblems(db, venue.id, show.id),
-		canEdit: PLANNERS.includes(venue.role),
-		runSheets: PLANNERS.includes(venue.role) ? await runSheetDelivery(db, venue.id, show.id) : null
+		conflicts,
+		crewProblems: checklist.signOff ? [] : crewProblemsOf(conflicts),
+		canEdit: planner,
+		runSheets
 	};
 };
 

@@ -3,17 +3,19 @@ import { requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
 import { showAccess } from '$lib/server/checklists/access';
 import { loadChecklist } from '$lib/server/checklists/state';
-import { syncChecklist } from '$lib/server/checklists/sync';
+import { withFreshChecklist } from '$lib/server/checklists/sync';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const access = await showAccess(db, venue, event.locals.person!.id, event.params.show);
 	if (!access.ok) error(access.status, access.message);
-	await syncChecklist(db, venue.id, access.show.id);
+	const checklist = await withFreshChecklist(db, venue.id, access.show.id, () =>
+		loadChecklist(db, venue, access.show.id)
+	);
 	return {
 		show: { id: access.show.id, date: access.show.date, status: access.show.status },
-		checklist: await loadChecklist(db, venue, access.show.id),
+		checklist,
 		manages: access.manages
 	};
 };

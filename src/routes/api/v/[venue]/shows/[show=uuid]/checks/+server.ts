@@ -3,7 +3,7 @@ import { requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
 import { showAccess } from '$lib/server/checklists/access';
 import { loadChecklist } from '$lib/server/checklists/state';
-import { syncChecklist } from '$lib/server/checklists/sync';
+import { withFreshChecklist } from '$lib/server/checklists/sync';
 import { progressByRoom, signOffBlockers } from '$lib/checklists/view';
 import type { RequestHandler } from './$types';
 
@@ -12,8 +12,9 @@ export const GET: RequestHandler = async (event) => {
 	const venue = requireRole(event);
 	const access = await showAccess(db, venue, event.locals.person!.id, event.params.show);
 	if (!access.ok) return json({ message: access.message }, { status: access.status });
-	await syncChecklist(db, venue.id, access.show.id);
-	const state = await loadChecklist(db, venue, access.show.id);
+	const state = await withFreshChecklist(db, venue.id, access.show.id, () =>
+		loadChecklist(db, venue, access.show.id)
+	);
 	return json(
 		{
 			...state,

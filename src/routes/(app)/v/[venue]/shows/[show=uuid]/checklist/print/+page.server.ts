@@ -3,7 +3,7 @@ import { requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
 import { showAccess } from '$lib/server/checklists/access';
 import { loadChecklist } from '$lib/server/checklists/state';
-import { syncChecklist } from '$lib/server/checklists/sync';
+import { withFreshChecklist } from '$lib/server/checklists/sync';
 import { localTime } from '$lib/util/when';
 import type { PageServerLoad } from './$types';
 
@@ -11,8 +11,10 @@ export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const access = await showAccess(db, venue, event.locals.person!.id, event.params.show);
 	if (!access.ok) error(access.status, access.message);
-	await syncChecklist(db, venue.id, access.show.id);
 	const s = access.show;
+	const checklist = await withFreshChecklist(db, venue.id, s.id, () =>
+		loadChecklist(db, venue, s.id)
+	);
 	return {
 		show: {
 			id: s.id,
@@ -20,6 +22,6 @@ export const load: PageServerLoad = async (event) => {
 			crewCall: localTime(s.crewCall, venue.timeZone),
 			doorsOpen: localTime(s.doorsOpen, venue.timeZone)
 		},
-		checklist: await loadChecklist(db, venue, s.id)
+		checklist
 	};
 };
