@@ -7,7 +7,7 @@ import {
 	nextDate,
 	parseDate,
 	parseTime,
-	wallToInstant
+	wallClock
 } from './wall-time';
 
 /** RFC 5545 day codes, Monday first. */
@@ -382,12 +382,15 @@ export function expandSeason(input: SeasonInput, options: ExpandOptions = {}): S
 	const fromRule = new Set(dates);
 	const all = [...new Set([...dates, ...extraNights])].filter((date) => !dark.has(date)).sort();
 	const afterMidnight = closeMinutes < openMinutes;
+	if (all.length === 0) return [];
+	// The zone's offset changes over the season are found once; each night is then arithmetic.
+	const at = wallClock(timeZone, all[0], all[all.length - 1]);
 	return all.map((date) => {
-		const open = wallToInstant(date, doorsOpen, timeZone);
+		const open = at(date, doorsOpen);
 		return {
 			date,
 			doorsOpen: open,
-			doorsClose: wallToInstant(afterMidnight ? nextDate(date) : date, doorsClose, timeZone),
+			doorsClose: at(afterMidnight ? nextDate(date) : date, doorsClose),
 			crewCall: crewCallAt(open, crewMinutes),
 			extra: !fromRule.has(date)
 		};
