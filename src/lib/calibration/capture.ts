@@ -1,8 +1,6 @@
 // Server side: reads a capture as a stream. Import from '$lib/calibration/capture'; it is kept out
 // of the index because the CSV parser needs Node streams.
-import { finished } from 'node:stream/promises';
-import { once } from 'node:events';
-import { CsvError, parse } from 'csv-parse';
+import type { CsvError } from 'csv-parse';
 import { isValid, parseISO } from 'date-fns';
 import {
 	CaptureStats,
@@ -11,12 +9,12 @@ import {
 	type CaptureStatsOptions,
 	type CaptureSummary
 } from './stats';
+import { MAX_LINE_LENGTH, readRecords, type RecordSource } from './records';
 
+export { MAX_LINE_LENGTH };
 export const DEFAULT_MAX_ERRORS = 20;
-/** Longest line accepted; keeps a stray quote from swallowing the whole file into memory. */
-export const MAX_LINE_LENGTH = 4096;
 
-export type CaptureSource = AsyncIterable<string | Uint8Array> | Iterable<string | Uint8Array>;
+export type CaptureSource = RecordSource;
 
 export interface CaptureError {
 	/** 1-based line in the file; null for problems with the file as a whole. */
@@ -50,6 +48,54 @@ const TIME_MILLISECONDS = ['ms', 'millis', 'milliseconds', 'time_ms', 't_ms', 'e
 const READING = ['reading', 'value', 'val', 'count', 'counts', 'raw', 'sample'];
 const LABEL = ['label', 'state', 'class', 'tag'];
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
+
+const isDigit = (c: number) => c >= 48 && c <= 57;
+const POWERS_OF_TEN = Array.from({ length: 16 }, (_, k) => 10 ** k);
+
+/**
+ * What a field means as a number when it matches NUMBER, else NaN: the same as testing NUMBER and
+ * calling Number(), read by hand because it runs for every field of every row. Up to 15 digits
+ * without an exponent, digits / 10^decimals is exact: both are whole numbers a double holds
+ * exactly, and a division rounds correctly, as Number() does. Anything longer goes to Number().
+ */
+export function plainNumber(text: string): number {
+	const n = text.length;
+	let i = 0;
+	let c = text.charCodeAt(0);
+	const negative = c === 45;
+	if (c === 43 || c === 45) c = text.charCodeAt(++i);
+	let digits = 0;
+	let whole = 0;
+	while (isDigit(c)) {
+		digits = digits * 10 + (c - 48);
+		whole++;
+		c = text.charCodeAt(++i);
+	}
+	let decimals = 0;
+	if (c === 46) {
+		c = text.charCodeAt(++i);
+		while (isDigit(c)) {
+			digits = digits * 10 + (c - 48);
+			decimals++;
+			c = text.charCodeAt(++i);
+		}
+	}
+	if (whole === 0 && decimals === 0) return NaN;
+	if (c === 101 || c === 69) {
+		c = text.charCodeAt(++i);
+		if (c === 43 || c === 45) c = text.charCodeAt(++i);
+		let exponent = 0;
+		while (isDigit(c)) {
+			exponent++;
+			c = text.charCodeAt(++i);
+		}
+		return exponent > 0 && i === n ? Number(text) : NaN;
+	}
+	if (i !== n) return NaN;
+	if (whole + decimals > 15) return Number(text);
+	const value = digits / POWERS_OF_TEN[decimals];
+	return negative ? -value : value;
+}
 
 type Layout = {
 	width: number;
@@ -123,7 +169,24 @@ class RecordReader {
 		return { kind: 'header' };
 	}
 
+	/** A good row the quick way; anything unusual is read again by slowRow for its messages. */
 	private readRow(fields: string[], layout: Layout): Outcome {
+		if (fields.length === layout.width) {
+			let label = fields[layout.label].trim();
+			if (label !== 'idle' && label !== 'present') label = label.toLowerCase();
+			const reading = plainNumber(fields[layout.reading].trim());
+			// NaN (not a number) and overflow both fail this; slowRow says which.
+			if ((label === 'idle' || label === 'present') && Number.isFinite(reading)) {
+				if (layout.time === null) return { kind: 'row', row: { reading, label } };
+				const time = plainNumber(fields[layout.time].trim());
+				if (!Number.isNaN(time))
+					return { kind: 'row', row: { reading, label, time: time * layout.timeScale } };
+			}
+		}
+		return this.slowRow(fields, layout);
+	}
+
+	private slowRow(fields: string[], layout: Layout): Outcome {
 		if (fields.length !== layout.width)
 			return {
 				kind: 'error',
@@ -204,64 +267,24 @@ export async function readCapture(
 	const errors: CaptureError[] = [];
 	let stopped = false;
 	let records = 0;
-	let lastRecordLine = 0;
 
-	const parser = parse({
-		bom: true,
-		skip_empty_lines: true,
-		relax_column_count: true,
-		comment: '#',
-		comment_no_infix: true,
-		max_record_size: MAX_LINE_LENGTH,
-		// Rows are handled here and never queued as stream output, which keeps memory flat.
-		on_record: (record: string[], context) => {
-			if (stopped) return null;
-			records++;
-			lastRecordLine = context.lines;
-			const outcome = reader.read(record, context.lines);
-			if (outcome.kind === 'row') {
-				stats.add(outcome.row);
-				options.onRow?.(outcome.row, context.lines);
-			} else if (outcome.kind === 'error') {
-				errors.push({ line: context.lines, message: `line ${context.lines}: ${outcome.message}` });
-				if (outcome.fatal || errors.length >= maxErrors) stopped = true;
-			}
-			return null;
+	const ended = await readRecords(source, (record, line) => {
+		records++;
+		const outcome = reader.read(record, line);
+		if (outcome.kind === 'row') {
+			stats.add(outcome.row);
+			options.onRow?.(outcome.row, line);
+		} else if (outcome.kind === 'error') {
+			errors.push({ line, message: `line ${line}: ${outcome.message}` });
+			if (outcome.fatal || errors.length >= maxErrors) stopped = true;
 		}
+		return !stopped;
 	});
-	let failure: unknown = null;
-	parser.on('error', (error) => {
-		failure = error;
-	});
-	parser.resume();
 
-	try {
-		for await (const chunk of source) {
-			if (stopped || failure) break;
-			if (!parser.write(chunk)) await once(parser, 'drain');
-		}
-		if (!stopped && !failure) {
-			parser.end();
-			await finished(parser);
-		}
-	} catch (error) {
-		failure ??= error;
-	} finally {
-		parser.destroy();
-	}
-
-	if (failure) {
-		if (!(failure instanceof CsvError)) throw failure;
-		// The reader only notices an unclosed quote at the end of the file; the quote itself opened
-		// on the first line after the last complete record.
-		const line =
-			failure.code === 'CSV_QUOTE_NOT_CLOSED'
-				? lastRecordLine + 1
-				: typeof failure.lines === 'number'
-					? failure.lines
-					: null;
+	if (ended.failure) {
+		const line = ended.failureLine;
 		const where = line === null ? '' : `line ${line}: `;
-		errors.push({ line, message: `${where}${csvProblem(failure)}; reading stopped here` });
+		errors.push({ line, message: `${where}${csvProblem(ended.failure)}; reading stopped here` });
 		stopped = true;
 	}
 
