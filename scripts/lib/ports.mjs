@@ -1,5 +1,6 @@
 // @ts-check
-// Fixed local ports and folders: one set for `npm start`, one for `npm test`, so both can run at once.
+// Fixed local ports and folders: one set each for `npm start`, `npm test` and `npm run bench`, so
+// they can run at once.
 // GLOAMING_PORT_OFFSET shifts every port, for a second checkout running its own stack beside this one.
 const offset = Number(process.env.GLOAMING_PORT_OFFSET ?? 0);
 
@@ -33,5 +34,14 @@ export const LOCAL = {
 		s3Port: 5630,
 		pgDir: '.data/pg-test',
 		s3Dir: '.data/objects-test'
+	}),
+	bench: shifted({
+		appPort: 5710,
+		pgPort: 5732,
+		smtpPort: 2725,
+		mailWebPort: 5725,
+		s3Port: 5730,
+		pgDir: '.data/pg-bench',
+		s3Dir: '.data/objects-bench'
 	})
 };

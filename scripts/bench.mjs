@@ -1,0 +1,277 @@
+// @ts-check
+// `npm run bench`: the performance figures, each against a floor measured in the same run. Not a
+// test and not part of `npm test`. Starts its own PostgreSQL (.data/pg-bench/, its own port), loads
+// the demo data and a large venue (scripts/bench/large-venue.ts), builds and starts the app, and
+// measures requests at 50 connections against a bare route (one indexed primary-key query), then
+// season expansion against rrule and capture analysis against a plain read and split. Prints one
+// table: what, figure, floor, ratio.
+//   BENCH_SECONDS=5   seconds per route (after a 1 s warm-up)
+//   BENCH_PROPS=2000 BENCH_SCENES=200 BENCH_PER_SCENE=3   size of the large venue
+//   BENCH_ROWS=1000000   capture rows
+//   BENCH_SKIP_BUILD=1   use the build/ already there
+import http from 'node:http';
+import { existsSync, readFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { ensureDependencies } from './lib/deps.mjs';
+import { LOCAL } from './lib/ports.mjs';
+import { ensurePostgres, recreateDatabase, stopPostgres } from './lib/pg.mjs';
+import { localSecret } from './lib/secret.mjs';
+import { runNode, startChild, stopChildren } from './lib/children.mjs';
+
+const ports = LOCAL.bench;
+const origin = `http://127.0.0.1:${ports.appPort}`;
+const SECONDS = Number(process.env.BENCH_SECONDS ?? 5);
+const CONNECTIONS = 50;
+const PASSWORD = 'lantern-demo-2026';
+
+ensureDependencies();
+const base = await ensurePostgres({
+	dataDir: ports.pgDir,
+	port: ports.pgPort,
+	database: 'postgres'
+});
+recreateDatabase({ port: ports.pgPort, database: 'gloaming_bench' });
+const databaseUrl = base.replace(/\/postgres$/, '/gloaming_bench');
+
+const env = {
+	DATABASE_URL: databaseUrl,
+	AUTH_SECRET: localSecret(),
+	ORIGIN: origin,
+	HOST: '127.0.0.1',
+	PORT: String(ports.appPort),
+	SMTP_HOST: '127.0.0.1',
+	SMTP_PORT: String(ports.smtpPort),
+	MAIL_WEB_PORT: String(ports.mailWebPort),
+	S3_ENDPOINT: `http://127.0.0.1:${ports.s3Port}`,
+	S3_PORT: String(ports.s3Port),
+	S3_DIR: ports.s3Dir,
+	S3_BUCKET: 'gloaming',
+	S3_ACCESS_KEY_ID: 'S3RVER',
+	S3_SECRET_ACCESS_KEY: 'S3RVER',
+	BODY_SIZE_LIMIT: '52M'
+};
+
+/** @param {string[]} args @returns {any} the JSON a script printed last */
+function nodeJson(args) {
+	const res = spawnSync(process.execPath, args, {
+		env: { ...process.env, ...env },
+		encoding: 'utf8',
+		maxBuffer: 1 << 26
+	});
+	if (res.status !== 0) throw new Error(`node ${args.join(' ')} failed:\n${res.stderr}`);
+	return JSON.parse(res.stdout.trim().split('\n').pop() ?? 'null');
+}
+
+/** Resident memory of a process in bytes, from /proc. @param {number | undefined} pid */
+function rss(pid) {
+	try {
+		const m = readFileSync(`/proc/${pid}/status`, 'utf8').match(/VmRSS:\s+(\d+) kB/);
+		return m ? Number(m[1]) * 1024 : 0;
+	} catch {
+		return 0;
+	}
+}
+
+/** @param {string} path @param {string} cookie @param {http.Agent} agent @returns {Promise<number>} */
+function get(path, cookie, agent) {
+	return new Promise((resolve, reject) => {
+		const req = http.get(
+			{ host: '127.0.0.1', port: ports.appPort, path, agent, headers: { cookie } },
+			(res) => {
+				res.resume();
+				res.on('end', () => resolve(res.statusCode ?? 0));
+			}
+		);
+		req.on('error', reject);
+	});
+}
+
+/**
+ * Requests from 50 connections for the given seconds, each connection one request at a time.
+ * @param {string} path @param {string} cookie @param {number} seconds
+ */
+async function load(path, cookie, seconds) {
+	const agent = new http.Agent({ keepAlive: true, maxSockets: CONNECTIONS });
+	/** @type {number[]} */
+	const times = [];
+	let failed = 0;
+	const until = performance.now() + seconds * 1000;
+	const started = performance.now();
+	const worker = async () => {
+		while (performance.now() < until) {
+			const t = performance.now();
+			const status = await get(path, cookie, agent);
+			times.push(performance.now() - t);
+			if (status !== 200) failed++;
+		}
+	};
+	await Promise.all(Array.from({ length: CONNECTIONS }, worker));
+	const elapsed = (performance.now() - started) / 1000;
+	agent.destroy();
+	times.sort((a, b) => a - b);
+	return {
+		p95: times[Math.min(times.length - 1, Math.floor(times.length * 0.95))],
+		perSecond: times.length / elapsed,
+		failed,
+		count: times.length
+	};
+}
+
+/** Signs a demo person in through Auth.js's password route; returns the cookie header. @param {string} email */
+async function signIn(email) {
+	const csrf = await fetch(`${origin}/auth/csrf`);
+	const { csrfToken } = /** @type {{ csrfToken: string }} */ (await csrf.json());
+	const jar = csrf.headers.getSetCookie().map((c) => c.split(';')[0]);
+	const res = await fetch(`${origin}/auth/callback/credentials`, {
+		method: 'POST',
+		redirect: 'manual',
+		headers: {
+			'content-type': 'application/x-www-form-urlencoded',
+			origin,
+			cookie: jar.join('; ')
+		},
+		body: new URLSearchParams({ email, password: PASSWORD, csrfToken, callbackUrl: '/venues' })
+	});
+	const session = res.headers
+		.getSetCookie()
+		.map((c) => c.split(';')[0])
+		.find((c) => c.includes('session-token='));
+	if (!session) throw new Error(`Could not sign ${email} in (status ${res.status}).`);
+	return session;
+}
+
+/** @type {[string, string, string, string][]} what, figure, floor, ratio */
+const table = [];
+const ms = (/** @type {number} */ x) => `${x < 10 ? x.toFixed(2) : x.toFixed(0)} ms`;
+const mb = (/** @type {number} */ x) => `${(x / 1024 / 1024).toFixed(0)} MB`;
+const ratio = (/** @type {number} */ a, /** @type {number} */ b) => `${(a / b).toFixed(2)}x`;
+
+let failed = false;
+try {
+	console.log('[bench] preparing the database and the large venue…');
+	runNode(['--import', 'tsx', 'scripts/migrate.ts'], env);
+	runNode(['--import', 'tsx', 'scripts/seed.ts'], env);
+	const size = [
+		process.env.BENCH_PROPS ?? '2000',
+		process.env.BENCH_SCENES ?? '200',
+		process.env.BENCH_PER_SCENE ?? '3'
+	];
+	const big = nodeJson(['--import', 'tsx', 'scripts/bench/large-venue.ts', ...size]);
+	if (!process.env.BENCH_SKIP_BUILD || !existsSync('build/index.js')) {
+		console.log('[bench] building the app…');
+		runNode(['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn'], env);
+	}
+	await startChild('mail catcher', ['--import', 'tsx', 'scripts/mail-catcher.ts'], env, {
+		waitFor: /\[mail\]/
+	});
+	await startChild('object store', ['--import', 'tsx', 'scripts/object-store.ts'], env, {
+		waitFor: /\[objects\]/
+	});
+	const app = /** @type {import('node:child_process').ChildProcess} */ (
+		await startChild('app', ['build/index.js'], env, { waitFor: /Listening/ })
+	);
+	const idleMemory = rss(app.pid);
+	let peakMemory = idleMemory;
+	const sampler = setInterval(() => (peakMemory = Math.max(peakMemory, rss(app.pid))), 100);
+
+	const manager = await signIn('manager@gloaming.test');
+	const crew = await signIn('crew@gloaming.test');
+	const v = `/api/v/${big.slug}`;
+	const page = `/v/${big.slug}`;
+	const show = big.showId;
+	const checks = /** @type {{ checks?: unknown[] }} */ (
+		await (await fetch(`${origin}${v}/shows/${show}/checks`, { headers: { cookie: crew } })).json()
+	);
+	const checkCount = checks.checks?.length ?? 0;
+	console.log(
+		`[bench] ${big.props} props, ${big.scenes} scenes, ${checkCount} checks on tonight's show; ` +
+			`${SECONDS} s per route at ${CONNECTIONS} connections`
+	);
+
+	/** @type {[string, string, string][]} */
+	const routes = [
+		['bare route, signed out', '/api/health', ''],
+		['bare route, signed in (venue API)', v, manager],
+		['rooms API', `${v}/rooms`, manager],
+		['props API', `${v}/props`, manager],
+		["a show's checks API", `${v}/shows/${show}/checks`, crew],
+		['crew checklist page', `${page}/shows/${show}/checklist`, crew],
+		['show page', `${page}/shows/${show}`, manager],
+		['Tonight page', page, manager]
+	];
+	/** @type {number | null} */
+	let floor = null;
+	for (const [what, path, cookie] of routes) {
+		await load(path, cookie, 1);
+		const r = await load(path, cookie, SECONDS);
+		if (r.failed > 0) console.error(`[bench] ${what}: ${r.failed} of ${r.count} requests not 200`);
+		floor ??= r.p95;
+		table.push([
+			`${what}: p95 at ${CONNECTIONS} connections (${r.perSecond.toFixed(0)} req/s)`,
+			ms(r.p95),
+			ms(floor),
+			ratio(r.p95, floor)
+		]);
+	}
+	clearInterval(sampler);
+	table.push([
+		'app memory, peak through the requests',
+		mb(peakMemory),
+		mb(idleMemory),
+		ratio(peakMemory, idleMemory)
+	]);
+	stopChildren();
+
+	console.log('[bench] season expansion…');
+	const season = nodeJson(['--import', 'tsx', 'scripts/bench/season.ts']);
+	table.push([
+		`season expansion, 365-night DST rule (${season.nights} nights), median vs rrule's own`,
+		ms(season.appMs),
+		ms(season.rruleMs),
+		ratio(season.appMs, season.rruleMs)
+	]);
+
+	console.log('[bench] capture analysis…');
+	const rows = process.env.BENCH_ROWS ?? '1000000';
+	const capture = nodeJson(['--import', 'tsx', 'scripts/bench/capture.ts', rows, '--json']);
+	const n = Number(rows).toLocaleString('en');
+	table.push([
+		`capture analysis, ${n} rows, best of 3 vs plain read and split`,
+		ms(capture.stream.ms),
+		ms(capture.plain.ms),
+		ratio(capture.stream.ms, capture.plain.ms)
+	]);
+	table.push([
+		`capture analysis, ${n} rows, peak memory vs plain read and split`,
+		mb(capture.stream.peak),
+		mb(capture.plain.peak),
+		ratio(capture.stream.peak, capture.plain.peak)
+	]);
+} catch (e) {
+	failed = true;
+	console.error(`[bench] ${e instanceof Error ? e.message : e}`);
+} finally {
+	stopChildren();
+	setTimeout(() => stopPostgres({ dataDir: ports.pgDir }), 300);
+}
+
+if (table.length) {
+	const head = /** @type {[string, string, string, string]} */ ([
+		'what',
+		'figure',
+		'floor',
+		'ratio'
+	]);
+	const widths = head.map((h, i) => Math.max(h.length, ...table.map((r) => r[i].length)));
+	const line = (/** @type {string[]} */ r) =>
+		`| ${r.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join(' | ')} |`;
+	console.log(
+		[
+			'',
+			line(head),
+			`|${widths.map((w) => '-'.repeat(w + 2)).join('|')}|`,
+			...table.map(line)
+		].join('\n')
+	);
+}
+process.exitCode = failed ? 1 : 0;
