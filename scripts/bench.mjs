@@ -117,20 +117,18 @@ async function load(path, cookie, seconds) {
 	};
 }
 
-/** Signs a demo person in through Auth.js's password route; returns the cookie header. @param {string} email */
+/** Signs a demo person in with the sign-in page's password form; returns the cookie header. @param {string} email */
 async function signIn(email) {
-	const csrf = await fetch(`${origin}/auth/csrf`);
-	const { csrfToken } = /** @type {{ csrfToken: string }} */ (await csrf.json());
-	const jar = csrf.headers.getSetCookie().map((c) => c.split(';')[0]);
-	const res = await fetch(`${origin}/auth/callback/credentials`, {
+	const res = await fetch(`${origin}/sign-in?/password`, {
 		method: 'POST',
 		redirect: 'manual',
-		headers: {
-			'content-type': 'application/x-www-form-urlencoded',
-			origin,
-			cookie: jar.join('; ')
-		},
-		body: new URLSearchParams({ email, password: PASSWORD, csrfToken, callbackUrl: '/venues' })
+		headers: { 'content-type': 'application/x-www-form-urlencoded', origin },
+		body: new URLSearchParams({
+			providerId: 'credentials',
+			redirectTo: '/venues',
+			email,
+			password: PASSWORD
+		})
 	});
 	const session = res.headers
 		.getSetCookie()
@@ -190,7 +188,7 @@ try {
 
 	/** @type {[string, string, string][]} */
 	const routes = [
-		['bare route, signed out', '/api/health', ''],
+		['bare route, signed out', '/health', ''],
 		['bare route, signed in (venue API)', v, manager],
 		['rooms API', `${v}/rooms`, manager],
 		['props API', `${v}/props`, manager],
