@@ -99,6 +99,7 @@ const MATRIX: Record<string, Entry> = {
 	},
 	'/calendar/[token].ics': { GET: 'public' },
 	'/theme': { POST: 'public' },
+	'/health': { GET: 'public' },
 	'/(app)': { layout: 'person' },
 	'/(app)/venues': { load: 'person', actions: { create: 'person' } },
 	'/api/offline': { GET: 'person' },
@@ -204,6 +205,7 @@ const MATRIX: Record<string, Entry> = {
 
 	'/api/v/[venue]/calculators/[name]': { POST: 'member' },
 	'/api/v/[venue]/calendar': { GET: 'member', POST: 'planners' },
+	'/api/v/[venue]': { GET: 'member' },
 	'/api/v/[venue]/rooms': { GET: 'member' },
 	'/api/v/[venue]/props': { GET: 'member', POST: 'editors' },
 	'/api/v/[venue]/props/[prop=uuid]': { GET: 'member', PUT: 'editors' },
