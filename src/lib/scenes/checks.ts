@@ -375,24 +375,7 @@ export function checkScene(
 	}
 
 	const luminance = options.luminance ?? ((_: Output, level: number) => level);
-	for (const output of used.filter((o) => o.kind === 'led')) {
-		const points = timelinePoints(scene, output.id, { kind: 'led' }).map((p) => ({
-			tMs: p.tMs,
-			level: luminance(output, p.level)
-		}));
-		const worst = maxFlashesPerSecond(points);
-		if (worst.flashes > MAX_FLASHES_PER_SECOND) {
-			add(
-				'flash-rate',
-				'warning',
-				`${name(output.id)} flashes ${count(worst.flashes)} times in one second (from ${seconds(worst.fromMs)}). More than 3 flashes a second can trigger seizures in people with photosensitive epilepsy (WCAG 2.3.1): slow it to 3 or fewer, or post photosensitivity warning signage before guests enter.`,
-				cuesBetween(scene, output.id, worst.fromMs, worst.fromMs + 1000),
-				[output.id]
-			);
-		}
-	}
-	// Every light of a scene is in the same room and so in the guests' view at once: WCAG 2.3.1
-	// counts the flashes a viewer sees, not those of each lamp, so they are counted together too.
+	// Each light's luminance over the scene, worked out once for the checks of one lamp and of the room.
 	const lights = used.filter(
 		(o) => o.kind === 'led' || (o.kind === 'relay' && o.relayKind === 'strobe')
 	);
@@ -404,6 +387,21 @@ export function checkScene(
 				}))
 			: timelinePoints(scene, output.id, { kind: 'relay' })
 	);
+	lights.forEach((output, i) => {
+		if (output.kind !== 'led') return;
+		const worst = maxFlashesPerSecond(lightPoints[i]);
+		if (worst.flashes > MAX_FLASHES_PER_SECOND) {
+			add(
+				'flash-rate',
+				'warning',
+				`${name(output.id)} flashes ${count(worst.flashes)} times in one second (from ${seconds(worst.fromMs)}). More than 3 flashes a second can trigger seizures in people with photosensitive epilepsy (WCAG 2.3.1): slow it to 3 or fewer, or post photosensitivity warning signage before guests enter.`,
+				cuesBetween(scene, output.id, worst.fromMs, worst.fromMs + 1000),
+				[output.id]
+			);
+		}
+	});
+	// Every light of a scene is in the same room and so in the guests' view at once: WCAG 2.3.1
+	// counts the flashes a viewer sees, not those of each lamp, so they are counted together too.
 	if (lights.length > 1) {
 		const together = maxFlashesPerSecondTogether(lightPoints);
 		const alone = Math.max(...lightPoints.map((points) => maxFlashesPerSecond(points).flashes));
