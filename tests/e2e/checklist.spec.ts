@@ -81,13 +81,22 @@ test('crew checking off pre-show sensor tests: readings on a phone, live progres
 	await expect(refusal).toContainText('Not yet');
 	await expect(refusal).toContainText(`Failed: ${PLATE}`);
 
-	// The prop is stood down with a reason; its scene holds its safe state; then the night is signed.
+	// The prop is stood down from the failed check: the preview says what it does, then a reason
+	// and a confirmation; its scenes hold their safe state; then the night is signed.
 	await manager
-		.getByLabel('Prop', { exact: true })
-		.selectOption({ label: 'Hand in the well (failing)' });
+		.getByTestId('failures')
+		.getByRole('link', { name: `Stand down the prop that failed ${PLATE}` })
+		.click();
+	await expect(manager.getByLabel('Prop', { exact: true })).toHaveValue(/.+/);
+	const preview = manager.getByTestId('stand-down-preview');
+	await expect(preview).toContainText('What standing down Hand in the well does tonight');
+	await expect(preview.getByTestId('preview-scenes').getByRole('listitem').first()).toBeVisible();
 	await manager
 		.getByLabel('Reason')
 		.fill('Plate reads high after the rain; lanterns held at full.');
+	await manager.getByRole('button', { name: 'Stand down for tonight' }).click();
+	await expect(manager.getByText(/Tick the box to confirm/)).toBeVisible();
+	await manager.getByRole('checkbox', { name: /I have read what this does/ }).check();
 	await manager.getByRole('button', { name: 'Stand down for tonight' }).click();
 	await expect(manager.getByRole('heading', { name: 'Stood down tonight' })).toBeVisible();
 	// Every scene that uses the prop says so (the demo well prop is in more than one scene).

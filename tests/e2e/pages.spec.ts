@@ -84,6 +84,17 @@ const pages: {
 		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027', 'Printable checklist'],
 		name: 'checklist-print'
 	},
+	{
+		role: 'manager',
+		path: async (page) => {
+			await page.goto(`${TRAIL}/seasons`);
+			await page.getByRole('link', { name: 'Hollow Pines Autumn 2027' }).click();
+			await page.getByRole('link', { name: 'Fri 1 Oct 2027' }).first().click();
+			const prop = await page.getByLabel('Prop', { exact: true }).inputValue();
+			return `${new URL(page.url()).pathname}/stand-down?prop=${prop}`;
+		},
+		name: 'stand-down'
+	},
 	{ role: 'manager', path: `${TRAIL}/safety`, name: 'safety-items' },
 	{
 		role: 'crew',

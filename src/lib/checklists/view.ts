@@ -39,6 +39,7 @@ export interface CheckView {
 }
 
 export interface StandDownView {
+	id: string;
 	propId: string;
 	propName: string;
 	reason: string;
@@ -61,7 +62,10 @@ export interface ChecklistView {
 	history: (ResultView & { label: string })[];
 	/** Results that arrived after sign-off, newest first. */
 	corrections: (ResultView & { label: string })[];
+	/** Stand-downs in force tonight. */
 	standDowns: StandDownView[];
+	/** Stand-downs a show manager undid, with both reasons. */
+	restored: (StandDownView & { restoreReason: string; restoredBy: string; restoredAt: string })[];
 	signOff: SignOffView | null;
 }
 

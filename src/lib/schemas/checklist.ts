@@ -43,6 +43,19 @@ export const standDownSchema = z.object({
 		.string({ error: 'Say why the prop is stood down.' })
 		.trim()
 		.min(3, 'Say why the prop is stood down.')
+		.max(500, 'Keep the reason under 500 characters.'),
+	/** The show manager read the preview and means it. */
+	confirm: z.literal('yes', {
+		error: 'Tick the box to confirm, after reading what the stand-down will do.'
+	})
+});
+
+export const restoreSchema = z.object({
+	standDownId: z.uuid({ error: 'That stand-down no longer exists.' }),
+	reason: z
+		.string({ error: 'Say why the prop can run again.' })
+		.trim()
+		.min(3, 'Say why the prop can run again.')
 		.max(500, 'Keep the reason under 500 characters.')
 });
 

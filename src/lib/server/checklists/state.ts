@@ -1,4 +1,5 @@
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/pg-core';
 import { arrivedLate, newestFirst } from '$lib/checklists/times';
 import type { ChecklistView, CheckView, ResultView } from '$lib/checklists/view';
 import { NO_ROOM } from '$lib/checklists/view';
@@ -9,9 +10,12 @@ import {
 	props,
 	rooms,
 	signOffs,
+	standDownRestores,
 	standDowns,
 	users
 } from '$lib/server/db/schema';
+
+const restorer = alias(users, 'restorer');
 
 const nameOf = (r: { name: string | null; email: string | null }) =>
 	r.name ?? r.email ?? 'a former member';
@@ -35,10 +39,20 @@ export async function loadChecklist(
 			.leftJoin(users, eq(users.id, checkResults.personId))
 			.where(and(eq(checkResults.showId, showId), eq(checkResults.venueId, venue.id))),
 		db
-			.select({ d: standDowns, propName: props.name, name: users.name, email: users.email })
+			.select({
+				d: standDowns,
+				propName: props.name,
+				name: users.name,
+				email: users.email,
+				restore: standDownRestores,
+				restorerName: restorer.name,
+				restorerEmail: restorer.email
+			})
 			.from(standDowns)
 			.innerJoin(props, eq(props.id, standDowns.propId))
 			.leftJoin(users, eq(users.id, standDowns.personId))
+			.leftJoin(standDownRestores, eq(standDownRestores.standDownId, standDowns.id))
+			.leftJoin(restorer, eq(restorer.id, standDownRestores.personId))
 			.where(and(eq(standDowns.showId, showId), eq(standDowns.venueId, venue.id)))
 			.orderBy(asc(standDowns.at)),
 		db
@@ -71,7 +85,8 @@ export async function loadChecklist(
 	// A check's state is what was signed: late corrections are shown apart and change nothing.
 	const latest = new Map<string, ResultView>();
 	for (const r of results) if (!r.afterSignOff && !latest.has(r.checkId)) latest.set(r.checkId, r);
-	const down = new Set(downRows.map((d) => d.d.propId));
+	const standing = downRows.filter((d) => d.restore === null);
+	const down = new Set(standing.map((d) => d.d.propId));
 	const list: CheckView[] = checkRows.map(({ check: c, roomName }) => ({
 		id: c.id,
 		key: c.key,
@@ -104,13 +119,31 @@ export async function loadChecklist(
 		checks: list,
 		history,
 		corrections: history.filter((r) => r.afterSignOff),
-		standDowns: downRows.map(({ d, propName, name, email }) => ({
+		standDowns: standing.map(({ d, propName, name, email }) => ({
+			id: d.id,
 			propId: d.propId,
 			propName,
 			reason: d.reason,
 			personName: nameOf({ name, email }),
 			at: d.at.toISOString()
 		})),
+		restored: downRows.flatMap(({ d, propName, name, email, restore, ...who }) =>
+			restore
+				? [
+						{
+							id: d.id,
+							propId: d.propId,
+							propName,
+							reason: d.reason,
+							personName: nameOf({ name, email }),
+							at: d.at.toISOString(),
+							restoreReason: restore.reason,
+							restoredBy: nameOf({ name: who.restorerName, email: who.restorerEmail }),
+							restoredAt: restore.at.toISOString()
+						}
+					]
+				: []
+		),
 		signOff: signed
 			? {
 					personName: nameOf(signed),

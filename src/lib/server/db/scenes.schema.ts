@@ -126,7 +126,9 @@ export const showSceneExclusions = pgTable(
 
 /**
  * A prop taken out of one show: its scenes hold their outputs in the safe state and the run sheets
- * say so. Written by the show manager at sign-off time; never edited, only added.
+ * say so. Written by the show manager before sign-off; never edited, only added. A stand-down is
+ * undone by a restore row (below), so a prop may be stood down again later the same night; only
+ * one stand-down without a restore per show and prop, kept under the show's lock.
  */
 export const standDowns = pgTable(
 	'stand_downs',
@@ -143,8 +145,21 @@ export const standDowns = pgTable(
 		personId: text('person_id').references(() => users.id, { onDelete: 'set null' }),
 		at: timestamp('at', { withTimezone: true }).notNull().defaultNow()
 	},
-	(t) => [uniqueIndex('stand_downs_show_prop').on(t.showId, t.propId)]
+	(t) => [index('stand_downs_show_prop').on(t.showId, t.propId)]
 );
+
+/** A stand-down undone by a show manager before sign-off, with their reason. Never edited. */
+export const standDownRestores = pgTable('stand_down_restores', {
+	id: uuid('id').primaryKey().defaultRandom(),
+	venueId: venueId(),
+	standDownId: uuid('stand_down_id')
+		.notNull()
+		.unique()
+		.references(() => standDowns.id, { onDelete: 'cascade' }),
+	reason: text('reason').notNull(),
+	personId: text('person_id').references(() => users.id, { onDelete: 'set null' }),
+	at: timestamp('at', { withTimezone: true }).notNull().defaultNow()
+});
 
 /**
  * A scene's change history: who changed what, when. Never edited, only added, so a change made

@@ -62,8 +62,13 @@ export function hashContent(data: RunSheetData, status: string): string {
 		.slice(0, 16);
 }
 
+/** Build the sheets as they would read after a change not yet made (for previews). */
+export interface WhatIf {
+	assumeDown?: { propId: string; reason: string };
+}
+
 /** The scenes of a show with their cues and safety notes, each with its room. */
-async function sceneSheets(db: Db, venue: Venue, showId: string) {
+async function sceneSheets(db: Db, venue: Venue, showId: string, what: WhatIf) {
 	const [night, roomRows] = await Promise.all([
 		loadNight(db, venue.id, showId),
 		db.select({ id: rooms.id, name: rooms.name }).from(rooms).where(eq(rooms.venueId, venue.id))
@@ -73,6 +78,7 @@ async function sceneSheets(db: Db, venue: Venue, showId: string) {
 	const propName = new Map(night.props.map((p) => [p.id, p.name]));
 	const sensorName = new Map(night.sensors.map((x) => [x.id, x.name]));
 	const downReason = new Map(night.standDowns.map((d) => [d.propId, d.reason]));
+	if (what.assumeDown) downReason.set(what.assumeDown.propId, what.assumeDown.reason);
 
 	const out: (RunSheetScene & { roomId: string | null; stoodDownProps: string[] })[] = [];
 	for (const s of night.scenes) {
@@ -136,7 +142,8 @@ export async function buildShowRunSheets(
 	db: Db,
 	venueId: string,
 	showId: string,
-	origin: string
+	origin: string,
+	what: WhatIf = {}
 ): Promise<ShowRunSheets | null> {
 	const [row] = await db
 		.select({ show: shows, venue: venues })
@@ -179,7 +186,7 @@ export async function buildShowRunSheets(
 			.innerJoin(users, eq(users.id, memberships.personId))
 			.where(and(eq(memberships.venueId, venueId), eq(memberships.role, 'show_manager')))
 			.orderBy(asc(users.name)),
-		sceneSheets(db, venue, showId)
+		sceneSheets(db, venue, showId, what)
 	]);
 
 	const contacts: RunSheetData['safetyContacts'] = [];

@@ -49,7 +49,7 @@ function crewCallIcs(
 }
 
 /** The newest run-sheet revision each person got for a show. */
-async function latestSends(db: Db, showId: string) {
+export async function latestSends(db: Db, showId: string) {
 	const rows = await db
 		.select()
 		.from(runSheetSends)

@@ -10,8 +10,13 @@ import {
 	scenes,
 	sensors,
 	showSceneExclusions,
+	standDownRestores,
 	standDowns
 } from '$lib/server/db/schema';
+
+/** A stand-down still in force: no show manager has restored the prop since. */
+export const notRestored = () =>
+	sql`not exists (select 1 from ${standDownRestores} where ${standDownRestores.standDownId} = ${standDowns.id})`;
 
 export interface ShowScene {
 	id: string;
@@ -141,7 +146,7 @@ export async function scenesForShow(
 				.select({ propId: standDowns.propId })
 				.from(standDowns)
 				.innerJoin(props, eq(props.id, standDowns.propId))
-				.where(and(eq(standDowns.showId, showId), eq(standDowns.venueId, venueId)))
+				.where(and(eq(standDowns.showId, showId), eq(standDowns.venueId, venueId), notRestored()))
 		]);
 	if (rows.length === 0) return [];
 

@@ -10,7 +10,7 @@ import {
 	standDowns
 } from '$lib/server/db/schema';
 import { toOutputModel, toSceneModel, type LoadedScene } from './model';
-import { nightPropIds, nightSceneIds, type ShowScene } from './for-show';
+import { nightPropIds, nightSceneIds, notRestored, type ShowScene } from './for-show';
 
 type Reader = Pick<Db, 'select' | 'selectDistinct'>;
 
@@ -65,7 +65,9 @@ export async function loadNight(db: Reader, venueId: string, showId: string): Pr
 			db
 				.select({ propId: standDowns.propId, reason: standDowns.reason })
 				.from(standDowns)
-				.where(and(eq(standDowns.showId, showId), eq(standDowns.venueId, venueId))),
+				.where(
+					and(eq(standDowns.showId, showId), eq(standDowns.venueId, venueId), notRestored())
+				),
 			db
 				.select()
 				.from(props)

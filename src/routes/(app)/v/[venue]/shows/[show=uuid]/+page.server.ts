@@ -19,11 +19,11 @@ import {
 	users
 } from '$lib/server/db/schema';
 import { notifyShow } from '$lib/server/checklists/live';
-import { crewProblemsOf, signOff, standDown } from '$lib/server/checklists/signoff';
+import { crewProblemsOf, restoreStandDown, signOff } from '$lib/server/checklists/signoff';
 import { loadChecklist } from '$lib/server/checklists/state';
 import { withFreshChecklist } from '$lib/server/checklists/sync';
 import { changesAfterSignOff, nightPropIds, scenesForShow } from '$lib/server/scenes/for-show';
-import { sceneExclusionSchema, signOffSchema, standDownSchema } from '$lib/schemas/checklist';
+import { restoreSchema, sceneExclusionSchema, signOffSchema } from '$lib/schemas/checklist';
 import { progressByRoom, signOffBlockers } from '$lib/checklists/view';
 import { keep, parseForm } from '$lib/server/forms';
 import { getShow, listPositions, showAssignments, showConflicts } from '$lib/server/schedule/shows';
@@ -394,23 +394,22 @@ export const actions: Actions = {
 		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'include', saved: true };
 	},
-	standDown: async (event) => {
+	restore: async (event) => {
 		const venue = requireRole(event, ...PLANNERS);
 		const show = await findShow(venue.id, event.params.show);
-		if (!show) return fail(404, { action: 'standDown', message: 'That show no longer exists.' });
-		const parsed = await parseForm(event.request, standDownSchema);
+		if (!show) return fail(404, { action: 'restore', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, restoreSchema);
 		if (!parsed.ok)
-			return fail(400, { action: 'standDown', values: keep(parsed.raw), errors: parsed.errors });
-		const done = await standDown(db, venue, show.id, event.locals.person!.id, parsed.data);
+			return fail(400, { action: 'restore', values: keep(parsed.raw), errors: parsed.errors });
+		const done = await restoreStandDown(db, venue, show.id, event.locals.person!.id, parsed.data);
 		if (!done.ok)
 			return fail(400, {
-				action: 'standDown',
+				action: 'restore',
 				values: keep(parsed.raw),
-				errors: { propId: [done.message] }
+				errors: { reason: [done.message] }
 			});
-		// Crew who already have a run sheet learn that the prop is held in its safe state tonight.
 		await noticeRunSheetChanges(db, venue.id, show.id, event);
-		return { action: 'standDown', saved: true };
+		return { action: 'restore', saved: true, propName: done.propName };
 	},
 	signOff: async (event) => {
 		const venue = requireRole(event, ...PLANNERS);
