@@ -1,3 +1,4 @@
+import { telHref } from '../src/lib/util/tel';
 import { zonePlace } from '../src/lib/util/when';
 import { COLOURS, button, escapeHtml, facts, frame, heading, list, textHeading } from './layout';
 
@@ -25,8 +26,12 @@ export interface RunSheetData {
 	position: string;
 	rooms: string[];
 	scenes: RunSheetScene[];
-	/** Left out until the show's checklist is generated. */
+	/** Their lines of the night's checklist: their rooms' checks, and every safety check for a safety post. */
 	checklist?: { room: string | null; item: string }[];
+	/** A safety post: it covers every room. */
+	safetyPost?: boolean;
+	/** For a safety post: every room's hazards, scene by scene. */
+	hazards?: { room: string; scene: string; warnings: RunSheetWarning[] }[];
 	/** A phone number, an e-mail address or both. */
 	safetyContacts: {
 		name: string;
@@ -64,6 +69,24 @@ function contactLine(c: RunSheetData['safetyContacts'][number]) {
 	return `${c.name}${c.role ? ` (${c.role})` : ''}${how ? `: ${how}` : ''}`;
 }
 
+/** The same line with the phone number as a link a phone dials when tapped. */
+function contactHtml(c: RunSheetData['safetyContacts'][number]) {
+	const tel = telHref(c.phone);
+	const phone = c.phone
+		? tel
+			? `<a href="${tel}" style="color:${COLOURS.lantern};font-weight:bold;">${escapeHtml(c.phone)}</a>`
+			: escapeHtml(c.phone)
+		: null;
+	const how = [phone, c.email ? escapeHtml(c.email) : null].filter(Boolean).join(', ');
+	return `<li style="margin:0 0 4px;"><strong>${escapeHtml(c.name)}</strong>${c.role ? ` (${escapeHtml(c.role)})` : ''}${how ? `: ${how}` : ''}</li>`;
+}
+
+/** The rooms line: a safety post covers every room; a post without a room says so plainly. */
+export function roomsText(d: Pick<RunSheetData, 'rooms' | 'safetyPost'>) {
+	if (d.safetyPost) return d.rooms.length ? `Every room (${d.rooms.join(', ')})` : 'Every room';
+	return d.rooms.join(', ') || 'No room of your own';
+}
+
 export function renderRunSheet(d: RunSheetData) {
 	const subject = runSheetSubject(d);
 	const when: [string, string][] = [
@@ -71,7 +94,7 @@ export function renderRunSheet(d: RunSheetData) {
 		['Crew call', `${d.crewCall} (${zonePlace(d.timeZone)} time)`],
 		['Doors', d.doors],
 		['Position', d.position],
-		['Rooms', d.rooms.join(', ') || 'None']
+		['Rooms', roomsText(d)]
 	];
 	if (d.address) when.splice(1, 0, ['Where', d.address]);
 
@@ -89,6 +112,14 @@ ${warnings}${s.cues.length ? list(s.cues) : `<p style="margin:0;color:${COLOURS.
 
 	const checklist = d.checklist?.map((c) => (c.room ? `${c.room}: ${c.item}` : c.item));
 	const contacts = d.safetyContacts.map(contactLine);
+	const hazards = d.hazards ?? [];
+	const hazardLines = hazards.flatMap((h) =>
+		h.warnings.map((w) => `${h.room}, ${h.scene}: ${warningText(w)}`)
+	);
+	const hazardHtml = d.safetyPost
+		? `${heading('Hazards in every room')}
+${hazardLines.length ? `<table role="presentation" cellpadding="0" cellspacing="0" width="100%" style="margin:0 0 8px;border-left:4px solid ${COLOURS.ember};"><tr><td style="padding:6px 10px;color:${COLOURS.ember};font-weight:bold;">${hazardLines.map(escapeHtml).join('<br>')}</td></tr></table>` : `<p style="margin:0;color:${COLOURS.muted};">No strobes, fog, pneumatics or mains loads run tonight.</p>`}`
+		: '';
 	const changes = d.changes ?? [];
 	const changeHtml = changes.length
 		? `${heading('What changed')}<table role="presentation" cellpadding="0" cellspacing="0" width="100%" style="margin:0 0 12px;border-left:4px solid ${COLOURS.lantern};">${changes
@@ -109,11 +140,12 @@ ${checklist.length ? list(checklist) : `<p style="margin:0;color:${COLOURS.muted
 ${changeHtml}
 ${facts(when)}
 ${d.url ? button(d.url, 'Open the run sheet') : ''}
+${hazardHtml}
 ${heading('Scenes in your rooms')}
 ${sceneHtml || `<p style="margin:0;color:${COLOURS.muted};">No scenes run in your rooms tonight.</p>`}
 ${checklistHtml}
 ${heading('Safety contacts')}
-${contacts.length ? list(contacts) : `<p style="margin:0;color:${COLOURS.muted};">Ask the show manager.</p>`}
+${contacts.length ? `<ul style="margin:0 0 8px;padding-left:22px;">${d.safetyContacts.map(contactHtml).join('')}</ul>` : `<p style="margin:0;color:${COLOURS.muted};">Ask the show manager.</p>`}
 ${heading('Show stop')}
 ${list(d.showStop, true)}
 <p style="margin:16px 0 0;color:${COLOURS.muted};font-size:14px;">Local codes and the authority having jurisdiction come first. If in doubt, stop the show.</p>`
@@ -131,13 +163,16 @@ ${list(d.showStop, true)}
 	const changeText = changes.length
 		? `\n${textHeading('What changed')}\n${changes.map((c) => `${c.what}: ${c.after} (was ${c.before})`).join('\n')}\n`
 		: '';
+	const hazardText = d.safetyPost
+		? `\n${textHeading('Hazards in every room')}\n${hazardLines.length ? hazardLines.map((l) => `! ${l}`).join('\n') : 'No strobes, fog, pneumatics or mains loads run tonight.'}\n`
+		: '';
 	const checklistText = checklist
 		? `\n${textHeading('Your checks before doors')}\n${checklist.length ? checklist.map((c) => `[ ] ${c}`).join('\n') : 'No checks assigned to you.'}\n`
 		: '';
 	const text = `${d.person.name}, here is your ${changes.length ? 'changed ' : ''}run sheet for ${d.venueName}.
 ${changeText}
 ${when.map(([k, v]) => `${k}: ${v}`).join('\n')}
-${d.url ? `\nOpen the run sheet: ${d.url}\n` : ''}
+${d.url ? `\nOpen the run sheet: ${d.url}\n` : ''}${hazardText}
 ${textHeading('Scenes in your rooms')}
 ${sceneText || 'No scenes run in your rooms tonight.'}
 ${checklistText}

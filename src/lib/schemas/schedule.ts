@@ -161,6 +161,11 @@ export const positionSchema = z.object({
 	required: z
 		.string()
 		.optional()
+		.transform((v) => v === 'on' || v === 'true'),
+	/** Its run sheet carries every room's hazards and the venue's safety items. */
+	safetyPost: z
+		.string()
+		.optional()
 		.transform((v) => v === 'on' || v === 'true')
 });
 

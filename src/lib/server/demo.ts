@@ -130,15 +130,23 @@ async function seedSchedule(db: Db, ids: Record<PersonKey, string>) {
 		.from(rooms)
 		.where(eq(rooms.venueId, venue.id));
 	const posts = [
-		...roomList.map((r) => ({ name: `Room tech, ${r.name}`, roomId: r.id, required: true })),
-		{ name: 'Queue line', roomId: null, required: true },
-		{ name: 'Safety lead', roomId: null, required: true }
+		...roomList.map((r) => ({
+			name: `Room tech, ${r.name}`,
+			roomId: r.id as string | null,
+			required: true,
+			safetyPost: false
+		})),
+		{ name: 'Queue line', roomId: null, required: true, safetyPost: false },
+		{ name: 'Safety lead', roomId: null, required: true, safetyPost: true }
 	];
 	for (const p of posts) {
 		await db
 			.insert(positions)
 			.values({ ...p, venueId: venue.id })
-			.onConflictDoNothing();
+			.onConflictDoUpdate({
+				target: [positions.venueId, positions.name],
+				set: { safetyPost: p.safetyPost }
+			});
 	}
 	let [season] = await db
 		.select({ id: seasons.id })

@@ -17,6 +17,7 @@ import {
 } from '$lib/server/db/schema';
 import { loadNight } from '$lib/server/scenes/night';
 import { luminanceThroughCurves } from '$lib/server/scenes/model';
+import { checklistSpecs } from '$lib/server/checklists/sync';
 import { localDay, localTime } from '$lib/util/when';
 
 export type Show = typeof shows.$inferSelect;
@@ -80,7 +81,11 @@ async function sceneSheets(db: Db, venue: Venue, showId: string, what: WhatIf) {
 	const downReason = new Map(night.standDowns.map((d) => [d.propId, d.reason]));
 	if (what.assumeDown) downReason.set(what.assumeDown.propId, what.assumeDown.reason);
 
-	const out: (RunSheetScene & { roomId: string | null; stoodDownProps: string[] })[] = [];
+	const out: (RunSheetScene & {
+		roomId: string | null;
+		stoodDownProps: string[];
+		stoodDownPropIds: string[];
+	})[] = [];
 	for (const s of night.scenes) {
 		const outputById = new Map(s.outputRows.map((o) => [o.id, o]));
 		const cues = [
@@ -114,11 +119,13 @@ async function sceneSheets(db: Db, venue: Venue, showId: string, what: WhatIf) {
 		if (hazards.has('pneumatics')) warnings.push({ kind: 'pneumatics' });
 		if (hazards.has('mains-powered load')) warnings.push({ kind: 'mains' });
 		const stoodDownProps: string[] = [];
+		const stoodDownPropIds: string[] = [];
 		for (const propId of s.propIds) {
 			const reason = downReason.get(propId);
 			if (reason === undefined) continue;
 			const prop = propName.get(propId) ?? 'A prop';
 			stoodDownProps.push(prop);
+			stoodDownPropIds.push(propId);
 			warnings.push({ kind: 'stood_down', prop, reason });
 		}
 		out.push({
@@ -127,7 +134,8 @@ async function sceneSheets(db: Db, venue: Venue, showId: string, what: WhatIf) {
 			roomId: s.roomId,
 			cues,
 			warnings,
-			stoodDownProps
+			stoodDownProps,
+			stoodDownPropIds
 		});
 	}
 	return out;
@@ -135,8 +143,9 @@ async function sceneSheets(db: Db, venue: Venue, showId: string, what: WhatIf) {
 
 /**
  * Every assigned person's run sheet for one show, built from the database: their call, positions,
- * rooms, the scenes running in those rooms with cues and safety notes, stood-down props, and
- * whom to call. Null when the show is not in the venue.
+ * rooms, the scenes running in those rooms with cues and safety notes, stood-down props, their
+ * checks before doors (their rooms' lines of the night's checklist), and whom to call. A safety
+ * post gets every room: all scenes, a hazards summary and every safety check. Null when the show is not in the venue.
  */
 export async function buildShowRunSheets(
 	db: Db,
@@ -154,7 +163,7 @@ export async function buildShowRunSheets(
 	const { show, venue } = row;
 	const tz = venue.timeZone;
 
-	const [crew, managers, scenes] = await Promise.all([
+	const [crew, managers, scenes, specs, roomRows] = await Promise.all([
 		db
 			.select({
 				personId: assignments.personId,
@@ -162,6 +171,7 @@ export async function buildShowRunSheets(
 				email: users.email,
 				callOverride: assignments.callOverride,
 				position: positions.name,
+				safetyPost: positions.safetyPost,
 				roomId: positions.roomId,
 				roomName: rooms.name,
 				roomOrder: rooms.position
@@ -186,8 +196,28 @@ export async function buildShowRunSheets(
 			.innerJoin(users, eq(users.id, memberships.personId))
 			.where(and(eq(memberships.venueId, venueId), eq(memberships.role, 'show_manager')))
 			.orderBy(asc(users.name)),
-		sceneSheets(db, venue, showId, what)
+		sceneSheets(db, venue, showId, what),
+		checklistSpecs(db, venueId, showId),
+		db
+			.select({ id: rooms.id, name: rooms.name, position: rooms.position })
+			.from(rooms)
+			.where(eq(rooms.venueId, venueId))
 	]);
+	const roomOrder = new Map(roomRows.map((r) => [r.id, r.position]));
+	const roomName = new Map(roomRows.map((r) => [r.id, r.name]));
+	// Checks of a stood-down prop are not worked tonight; they stay off the sheets.
+	const down = new Set(scenes.flatMap((s) => s.stoodDownPropIds));
+	if (what.assumeDown) down.add(what.assumeDown.propId);
+	const workable = specs.filter((c) => !c.propId || !down.has(c.propId));
+	/** Every room's hazards, for safety posts: rooms in venue order, scenes in name order. */
+	const hazards: NonNullable<RunSheetData['hazards']> = scenes
+		.filter((s) => s.warnings.length)
+		.sort(
+			(a, b) =>
+				(a.roomId ? (roomOrder.get(a.roomId) ?? 9000) : 9999) -
+				(b.roomId ? (roomOrder.get(b.roomId) ?? 9000) : 9999)
+		)
+		.map((s) => ({ room: s.room, scene: s.name, warnings: s.warnings }));
 
 	const contacts: RunSheetData['safetyContacts'] = [];
 	if (venue.safetyContactName || venue.safetyContactPhone)
@@ -220,8 +250,22 @@ export async function buildShowRunSheets(
 					.map((a) => [a.roomId!, a.roomName!])
 			)
 		];
+		const safety = mine.some((a) => a.safetyPost);
 		const roomIds = new Set(roomList.map(([id]) => id));
-		const theirScenes = scenes.filter((s) => s.roomId && roomIds.has(s.roomId));
+		// A safety post walks every room: all of tonight's scenes, hazards and safety checks.
+		const theirScenes = safety ? scenes : scenes.filter((s) => s.roomId && roomIds.has(s.roomId));
+		const rooms = safety
+			? [
+					...new Set(
+						[...roomIds, ...scenes.flatMap((s) => (s.roomId ? [s.roomId] : []))].sort(
+							(a, b) => (roomOrder.get(a) ?? 0) - (roomOrder.get(b) ?? 0)
+						)
+					)
+				].map((id) => roomName.get(id) ?? 'No room')
+			: roomList.map(([, n]) => n);
+		const checklist = workable
+			.filter((c) => (c.roomId && roomIds.has(c.roomId)) || (safety && c.kind === 'safety'))
+			.map((c) => ({ room: c.roomId ? (roomName.get(c.roomId) ?? null) : null, item: c.label }));
 		const name = mine[0].name ?? mine[0].email;
 		const data: RunSheetData = {
 			venueName: venue.name,
@@ -232,8 +276,10 @@ export async function buildShowRunSheets(
 			timeZone: tz,
 			person: { name },
 			position: [...new Set(mine.map((a) => a.position))].join(', '),
-			rooms: roomList.map(([, n]) => n),
+			rooms,
+			...(safety ? { safetyPost: true, hazards } : {}),
 			scenes: theirScenes.map(({ name, room, cues, warnings }) => ({ name, room, cues, warnings })),
+			checklist,
 			safetyContacts: contacts,
 			showStop: SHOW_STOP,
 			url: runSheetUrl(origin, venue.slug, show.id, personId)

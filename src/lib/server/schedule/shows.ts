@@ -17,6 +17,7 @@ export function listPositions(db: Db, venueId: string) {
 			id: positions.id,
 			name: positions.name,
 			required: positions.required,
+			safetyPost: positions.safetyPost,
 			roomId: positions.roomId,
 			roomName: rooms.name
 		})

@@ -1,7 +1,8 @@
-import { asc, count, eq } from 'drizzle-orm';
+import { and, asc, count, eq } from 'drizzle-orm';
 import { requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
-import { memberships, rooms, venues } from '$lib/server/db/schema';
+import { assignments, memberships, positions, rooms, shows, venues } from '$lib/server/db/schema';
+import { telHref } from '$lib/util/tel';
 import {
 	nextShow,
 	showAssignments,
@@ -55,6 +56,42 @@ export const load: PageServerLoad = async (event) => {
 		const mine = crew.filter((a) => a.personId === event.locals.person!.id);
 		const canOpen = planner || mine.length > 0;
 		const checklist = plannerChecklist ?? (canOpen && scheduled ? await summary() : null);
+		// Every post the person has that night, here and at their other venues, earliest call first.
+		const calls = await db
+			.select({
+				showId: shows.id,
+				venueSlug: venues.slug,
+				venueName: venues.name,
+				venueId: venues.id,
+				timeZone: venues.timeZone,
+				position: positions.name,
+				room: rooms.name,
+				at: assignments.callOverride,
+				crewCall: shows.crewCall,
+				status: shows.status
+			})
+			.from(assignments)
+			.innerJoin(shows, eq(shows.id, assignments.showId))
+			.innerJoin(venues, eq(venues.id, shows.venueId))
+			.innerJoin(
+				memberships,
+				and(eq(memberships.venueId, venues.id), eq(memberships.personId, assignments.personId))
+			)
+			.innerJoin(positions, eq(positions.id, assignments.positionId))
+			.leftJoin(rooms, eq(rooms.id, positions.roomId))
+			.where(and(eq(assignments.personId, event.locals.person!.id), eq(shows.date, show.date)));
+		const myCalls = calls
+			.map((c) => ({ ...c, at: c.at ?? c.crewCall }))
+			.sort((a, b) => a.at.getTime() - b.at.getTime() || a.position.localeCompare(b.position))
+			.map((c) => ({
+				showId: c.showId,
+				venueSlug: c.venueSlug,
+				venueName: c.venueId === venue.id ? null : c.venueName,
+				position: c.position,
+				room: c.room,
+				call: localTime(c.at, c.timeZone),
+				cancelled: c.status !== 'scheduled'
+			}));
 		next = {
 			checklist,
 			runSheets: delivery
@@ -69,11 +106,17 @@ export const load: PageServerLoad = async (event) => {
 			doorsClose: localTime(show.doorsClose, venue.timeZone),
 			assigned: crew.length,
 			positions: posts.length,
-			myCall: mine.length ? localTime(mine[0].callOverride ?? show.crewCall, venue.timeZone) : null,
+			myCalls,
 			problems: conflicts.length,
 			canOpen: venue.role !== 'crew' || mine.length > 0,
 			canCheck: canOpen
 		};
 	}
-	return { details, rooms: roomList, memberCount: members.n, next };
+	return {
+		details,
+		safetyTel: telHref(details.safetyContactPhone),
+		rooms: roomList,
+		memberCount: members.n,
+		next
+	};
 };
