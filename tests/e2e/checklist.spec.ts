@@ -30,6 +30,19 @@ test('crew checking off pre-show sensor tests: readings on a phone, live progres
 	await crew.goto(`${TRAIL}/my-nights`);
 	await crew.getByRole('link', { name: 'Checklist for Fri 1 Oct 2027' }).click();
 	await expect(crew.getByRole('heading', { level: 1, name: 'Pre-show checklist' })).toBeVisible();
+	// Crew start on their own room; the switch shows every room, and stays through reloads.
+	await expect(crew.getByRole('button', { name: 'Your room: Gatehouse' })).toHaveAttribute(
+		'aria-pressed',
+		'true'
+	);
+	// The demo Gatehouse has no props: nothing of the night's list is there.
+	await expect(crew.getByText('Nothing to check in Gatehouse tonight.')).toBeVisible();
+	await expect(check(crew, PLATE)).toHaveCount(0);
+	await crew.getByRole('button', { name: /^All rooms/ }).click();
+	// The long caution was shown once; on the next opening it is folded.
+	await crew.reload();
+	await expect(crew.getByTestId('caution-folded')).not.toHaveAttribute('open');
+	await expect(check(crew, PLATE)).toHaveCount(1);
 	const showPath = new URL(crew.url()).pathname.replace(/\/checklist$/, '');
 
 	// The show manager watches the show page on another phone.
