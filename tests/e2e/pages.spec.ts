@@ -73,6 +73,17 @@ const pages: {
 		name: 'run-sheet'
 	},
 	{
+		role: 'manager',
+		path: `${TRAIL}/seasons`,
+		follow: [
+			'Hollow Pines Autumn 2027',
+			'Fri 1 Oct 2027',
+			'Preview run sheets',
+			"Open Maren Quill's run sheet on its own"
+		],
+		name: 'run-sheet-safety-lead'
+	},
+	{
 		role: 'crew',
 		path: `${TRAIL}/my-nights`,
 		follow: ['Fri 1 Oct 2027', 'Your run sheet'],

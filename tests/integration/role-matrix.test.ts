@@ -190,9 +190,13 @@ const MATRIX: Record<string, Entry> = {
 			unassign: 'planners',
 			exclude: 'planners',
 			include: 'planners',
-			standDown: 'planners',
+			restore: 'planners',
 			signOff: 'planners'
 		}
+	},
+	'/(app)/v/[venue]/shows/[show=uuid]/stand-down': {
+		load: 'planners',
+		actions: { default: 'planners' }
 	},
 	'/(app)/v/[venue]/shows/[show=uuid]/checklist': { load: 'assigned' },
 	'/(app)/v/[venue]/shows/[show=uuid]/checklist/print': { load: 'assigned' },
