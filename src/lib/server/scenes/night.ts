@@ -65,9 +65,7 @@ export async function loadNight(db: Reader, venueId: string, showId: string): Pr
 			db
 				.select({ propId: standDowns.propId, reason: standDowns.reason })
 				.from(standDowns)
-				.where(
-					and(eq(standDowns.showId, showId), eq(standDowns.venueId, venueId), notRestored())
-				),
+				.where(and(eq(standDowns.showId, showId), eq(standDowns.venueId, venueId), notRestored())),
 			db
 				.select()
 				.from(props)

@@ -1,7 +1,7 @@
-import { and, asc, count, eq } from 'drizzle-orm';
+import { asc, count, eq } from 'drizzle-orm';
 import { requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
-import { assignments, memberships, positions, rooms, shows, venues } from '$lib/server/db/schema';
+import { memberships, rooms, venues } from '$lib/server/db/schema';
 import { telHref } from '$lib/util/tel';
 import {
 	nextShow,
@@ -56,41 +56,22 @@ export const load: PageServerLoad = async (event) => {
 		const mine = crew.filter((a) => a.personId === event.locals.person!.id);
 		const canOpen = planner || mine.length > 0;
 		const checklist = plannerChecklist ?? (canOpen && scheduled ? await summary() : null);
-		// Every post the person has that night, here and at their other venues, earliest call first.
-		const calls = await db
-			.select({
-				showId: shows.id,
-				venueSlug: venues.slug,
-				venueName: venues.name,
-				venueId: venues.id,
-				timeZone: venues.timeZone,
-				position: positions.name,
-				room: rooms.name,
-				at: assignments.callOverride,
-				crewCall: shows.crewCall,
-				status: shows.status
+		// Every post the person has on the night, earliest call first (no extra read: the crew and
+		// positions are loaded above).
+		const myCalls = mine
+			.map((a) => {
+				const post = posts.find((p) => p.id === a.positionId);
+				return {
+					at: a.callOverride ?? show.crewCall,
+					position: post?.name ?? 'A position',
+					room: post?.roomName ?? null
+				};
 			})
-			.from(assignments)
-			.innerJoin(shows, eq(shows.id, assignments.showId))
-			.innerJoin(venues, eq(venues.id, shows.venueId))
-			.innerJoin(
-				memberships,
-				and(eq(memberships.venueId, venues.id), eq(memberships.personId, assignments.personId))
-			)
-			.innerJoin(positions, eq(positions.id, assignments.positionId))
-			.leftJoin(rooms, eq(rooms.id, positions.roomId))
-			.where(and(eq(assignments.personId, event.locals.person!.id), eq(shows.date, show.date)));
-		const myCalls = calls
-			.map((c) => ({ ...c, at: c.at ?? c.crewCall }))
 			.sort((a, b) => a.at.getTime() - b.at.getTime() || a.position.localeCompare(b.position))
 			.map((c) => ({
-				showId: c.showId,
-				venueSlug: c.venueSlug,
-				venueName: c.venueId === venue.id ? null : c.venueName,
 				position: c.position,
 				room: c.room,
-				call: localTime(c.at, c.timeZone),
-				cancelled: c.status !== 'scheduled'
+				call: localTime(c.at, venue.timeZone)
 			}));
 		next = {
 			checklist,

@@ -1,6 +1,4 @@
 import { error } from '@sveltejs/kit';
-import { and, eq } from 'drizzle-orm';
-import { assignments, positions, rooms } from '$lib/server/db/schema';
 import { requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
 import { showAccess } from '$lib/server/checklists/access';
@@ -16,18 +14,7 @@ export const load: PageServerLoad = async (event) => {
 		loadChecklist(db, venue, access.show.id)
 	);
 	// The rooms of the person's posts tonight; none (every room) for a safety post or no room post.
-	const posts = await db
-		.select({ roomId: positions.roomId, room: rooms.name, safetyPost: positions.safetyPost })
-		.from(assignments)
-		.innerJoin(positions, eq(positions.id, assignments.positionId))
-		.leftJoin(rooms, and(eq(rooms.id, positions.roomId), eq(rooms.venueId, venue.id)))
-		.where(
-			and(
-				eq(assignments.venueId, venue.id),
-				eq(assignments.showId, access.show.id),
-				eq(assignments.personId, event.locals.person!.id)
-			)
-		);
+	const posts = access.posts;
 	const own = [
 		...new Map(posts.flatMap((p) => (p.roomId && p.room ? [[p.roomId, p.room] as const] : [])))
 	].map(([id, name]) => ({ id, name }));
