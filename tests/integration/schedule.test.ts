@@ -11,6 +11,7 @@ import {
 } from '../../src/lib/server/db/schema';
 import { createSeason, seasonShows, updateSeason } from '../../src/lib/server/schedule/seasons';
 import { showConflicts } from '../../src/lib/server/schedule/shows';
+import { localDay } from '../../src/lib/util/when';
 import { feedCalendar, hashFeedToken, resetFeed } from '../../src/lib/server/schedule/feeds';
 import { autumn } from './autumn';
 import { makePerson, makeVenue, testDb } from './db';
@@ -166,12 +167,57 @@ describe('conflicts', () => {
 		});
 		found = await showConflicts(db, venue.id, opening.id);
 		expect(found.map((c) => c.kind).sort()).toEqual(['double_booked', 'unavailable']);
-		expect(found.find((c) => c.kind === 'double_booked')!.message).toContain('Sable Quarry Walk');
+		const clash = found.find((c) => c.kind === 'double_booked')!;
+		// The message names the other venue, the other post and the night, but links nowhere:
+		// the other venue's show is not this venue's to open.
+		expect(clash.message).toBe(
+			'Ivo Brackenridge is assigned as Queue line here and also as Gate at Sable Quarry Walk on ' +
+				`${localDay(opening.date)} at the same time.`
+		);
+		expect(clash.href).toBeUndefined();
 
 		// A cancelled show no longer clashes.
 		await db.update(shows).set({ status: 'cancelled' }).where(eq(shows.id, theirOpening.id));
 		found = await showConflicts(db, venue.id, opening.id);
 		expect(found.map((c) => c.kind)).toEqual(['unavailable']);
+	});
+});
+
+describe('double-bookings in one venue', () => {
+	it('name the other show and post, with a link to it', async () => {
+		const { venue } = await londonVenue();
+		const crew = await makePerson(db, 'Wren Halloway');
+		const { season } = await createSeason(db, venue.id, venue.timeZone, autumn);
+		const [opening] = await seasonShows(db, venue.id, season.id);
+		// A second, late show the same night, overlapping the first.
+		const [late] = await db
+			.insert(shows)
+			.values({
+				venueId: venue.id,
+				date: opening.date,
+				crewCall: new Date(opening.crewCall.getTime() + 3_600_000),
+				doorsOpen: new Date(opening.doorsOpen.getTime() + 3_600_000),
+				doorsClose: new Date(opening.doorsClose.getTime() + 3_600_000)
+			})
+			.returning();
+		const [gate, maze] = await db
+			.insert(positions)
+			.values([
+				{ venueId: venue.id, name: 'Gate', required: false },
+				{ venueId: venue.id, name: 'Maze runner', required: false }
+			])
+			.returning();
+		await db.insert(assignments).values([
+			{ venueId: venue.id, showId: opening.id, positionId: gate.id, personId: crew.id },
+			{ venueId: venue.id, showId: late.id, positionId: maze.id, personId: crew.id }
+		]);
+		const [clash] = await showConflicts(db, venue.id, opening.id);
+		expect(clash.kind).toBe('double_booked');
+		expect(clash.message).toBe(
+			'Wren Halloway is assigned as Gate here and also as Maze runner at the show on ' +
+				`${localDay(opening.date)} at the same time.`
+		);
+		expect(clash.href).toBe(`/v/${venue.slug}/shows/${late.id}`);
 	});
 });
 

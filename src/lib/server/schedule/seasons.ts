@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, gte, inArray, lte, sql } from 'drizzle-orm';
 import { expandSeason, type ShowNight } from '../../schedule';
 import type { Db } from '../db/client';
 import { assignments, seasons, shows } from '../db/schema';
@@ -97,6 +97,55 @@ export async function leavingShows(
 		.groupBy(shows.id)
 		.orderBy(asc(shows.date));
 	return rows.filter((r) => !wanted.has(r.date));
+}
+
+export interface OverlappingNight {
+	date: string;
+	/** The other season's name; null for a one-off show. */
+	seasonName: string | null;
+}
+
+/**
+ * Nights of these that clash with another season's (or a one-off) show of the venue: the same
+ * date with doors times that overlap. Dark and cancelled shows do not clash.
+ */
+export async function overlappingNights(
+	db: Reader,
+	venueId: string,
+	nights: Pick<ShowNight, 'date' | 'doorsOpen' | 'doorsClose'>[],
+	exceptSeasonId?: string
+): Promise<OverlappingNight[]> {
+	if (!nights.length) return [];
+	const dates = nights.map((n) => n.date).sort();
+	const rows = await db
+		.select({
+			date: shows.date,
+			doorsOpen: shows.doorsOpen,
+			doorsClose: shows.doorsClose,
+			seasonId: shows.seasonId,
+			seasonName: seasons.name
+		})
+		.from(shows)
+		.leftJoin(seasons, eq(seasons.id, shows.seasonId))
+		.where(
+			and(
+				eq(shows.venueId, venueId),
+				eq(shows.status, 'scheduled'),
+				// The season's span, however many nights: two parameters, matched night by night below.
+				gte(shows.date, dates[0]),
+				lte(shows.date, dates[dates.length - 1])
+			)
+		)
+		.orderBy(asc(shows.date));
+	const byDate = new Map(nights.map((n) => [n.date, n]));
+	const found: OverlappingNight[] = [];
+	for (const r of rows) {
+		if (exceptSeasonId && r.seasonId === exceptSeasonId) continue;
+		const n = byDate.get(r.date);
+		if (!n || !(r.doorsOpen < n.doorsClose && n.doorsOpen < r.doorsClose)) continue;
+		found.push({ date: r.date, seasonName: r.seasonName });
+	}
+	return found;
 }
 
 /** The leaving shows that a choice removes. A night with recorded checks is never removed. */

@@ -1,6 +1,7 @@
 import { and, asc, eq, gt, inArray, lt, ne } from 'drizzle-orm';
 import { findDoubleBookings, type CrewAssignment } from '../../schedule';
 import type { Db } from '../db/client';
+import { localDay } from '../../util/when';
 import { assignments, positions, rooms, shows, unavailability, users, venues } from '../db/schema';
 
 export function getShow(db: Db, venueId: string, showId: string) {
@@ -48,6 +49,8 @@ export interface Conflict {
 	message: string;
 	personId?: string;
 	positionId?: string;
+	/** The other show of a double-booking, when it is in this venue: a link to open it. */
+	href?: string;
 }
 
 /**
@@ -92,6 +95,9 @@ export async function showConflicts(
 			showId: assignments.showId,
 			venueId: assignments.venueId,
 			venueName: venues.name,
+			venueSlug: venues.slug,
+			positionName: positions.name,
+			showDate: shows.date,
 			callOverride: assignments.callOverride,
 			crewCall: shows.crewCall,
 			doorsClose: shows.doorsClose
@@ -99,6 +105,7 @@ export async function showConflicts(
 		.from(assignments)
 		.innerJoin(shows, eq(shows.id, assignments.showId))
 		.innerJoin(venues, eq(venues.id, assignments.venueId))
+		.leftJoin(positions, eq(positions.id, assignments.positionId))
 		.where(
 			and(
 				inArray(assignments.personId, people),
@@ -118,7 +125,11 @@ export async function showConflicts(
 			)
 		);
 	const [theirs, away] = await Promise.all([theirsQuery, awayQuery]);
-	const venueName = new Map(theirs.map((a) => [a.id, a.venueName]));
+	const byId = new Map(theirs.map((a) => [a.id, a]));
+	const postOf = (id: string | undefined) => {
+		const post = id ? byId.get(id)?.positionName : null;
+		return post ? `as ${post}` : 'with no position';
+	};
 	const crew: CrewAssignment[] = theirs.map((a) => ({
 		id: a.id,
 		personId: a.personId,
@@ -134,15 +145,19 @@ export async function showConflicts(
 		const key = `${b.personId}:${other.id}`;
 		if (seen.has(key)) continue;
 		seen.add(key);
+		const mine = b.first.showId === showId ? b.first : b.second;
+		const row = byId.get(other.id!)!;
+		const here = row.venueId === venueId;
 		const where = b.sameShow
-			? 'at two positions in this show'
-			: other.venueId === venueId
-				? 'at another show here at the same time'
-				: `at ${venueName.get(other.id!)} at the same time`;
+			? `${postOf(other.id)} too, in this show`
+			: here
+				? `${postOf(other.id)} at the show on ${localDay(row.showDate)} at the same time`
+				: `${postOf(other.id)} at ${row.venueName} on ${localDay(row.showDate)} at the same time`;
 		conflicts.push({
 			kind: 'double_booked',
 			personId: b.personId,
-			message: `${name.get(b.personId)} is also assigned ${where}.`
+			message: `${name.get(b.personId)} is assigned ${postOf(mine.id)} here and also ${where}.`,
+			...(here && !b.sameShow ? { href: `/v/${row.venueSlug}/shows/${row.showId}` } : {})
 		});
 	}
 

@@ -1,4 +1,5 @@
 import { fail } from '@sveltejs/kit';
+import { and, eq, gt, sql } from 'drizzle-orm';
 import { nextDate, wallToInstant, crewCallAt } from '$lib/schedule';
 import { PLANNERS, requireRole } from '$lib/server/auth/guard';
 import { audit } from '$lib/server/audit';
@@ -12,8 +13,20 @@ import { config } from '$lib/server/config';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
-	const feeds = await feedsOf(db, event.locals.person!.id);
+	const [feeds, hours] = await Promise.all([
+		feedsOf(db, event.locals.person!.id),
+		// The week view opens at the hour of the earliest crew call among the coming nights.
+		db
+			.select({
+				from: sql<
+					string | null
+				>`min(to_char(${shows.crewCall} at time zone ${venue.timeZone}, 'HH24:00:00'))`
+			})
+			.from(shows)
+			.where(and(eq(shows.venueId, venue.id), gt(shows.doorsClose, new Date())))
+	]);
 	return {
+		showHoursFrom: hours[0]?.from ?? '16:00:00',
 		canEdit: PLANNERS.includes(venue.role),
 		venueFeedMadeAt: feeds.find((f) => f.kind === 'venue' && f.venueId === venue.id)?.at ?? null
 	};

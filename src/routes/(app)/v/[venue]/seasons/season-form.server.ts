@@ -1,7 +1,12 @@
 import { fail } from '@sveltejs/kit';
 import { SeasonRuleError, describeRule } from '$lib/schedule';
 import { parseForm, keep } from '$lib/server/forms';
-import { previewNights, type LeavingShow, type SeasonFields } from '$lib/server/schedule/seasons';
+import {
+	previewNights,
+	type LeavingShow,
+	type OverlappingNight,
+	type SeasonFields
+} from '$lib/server/schedule/seasons';
 import { seasonFormSchema } from '$lib/schemas/schedule';
 import { localTime } from '$lib/util/when';
 
@@ -11,7 +16,7 @@ export async function readSeasonForm(request: Request, timeZone: string) {
 	const raw = parsed.raw;
 	// The removal ticks are asked afresh after each answer, so they are not kept.
 	const values = {
-		...keep(raw, 'confirmRemoval', 'removeAssigned'),
+		...keep(raw, 'confirmRemoval', 'removeAssigned', 'confirmOverlap'),
 		nights: [raw.nights ?? []].flat().map(String)
 	};
 	if (!parsed.ok)
@@ -39,7 +44,8 @@ export async function readSeasonForm(request: Request, timeZone: string) {
 						: []
 				),
 				assigned: raw.removeAssigned === 'on'
-			}
+			},
+			overlapConfirmed: raw.confirmOverlap === 'on'
 		};
 	} catch (e) {
 		if (e instanceof SeasonRuleError) {
@@ -58,7 +64,8 @@ export function previewOf(
 	fields: SeasonFields,
 	nights: ReturnType<typeof previewNights>,
 	timeZone: string,
-	leaving: LeavingShow[] = []
+	leaving: LeavingShow[] = [],
+	overlaps: OverlappingNight[] = []
 ) {
 	return {
 		summary: describeRule(fields.rule),
@@ -72,6 +79,17 @@ export function previewOf(
 			opening: n.date === fields.openingNight
 		})),
 		darkNights: fields.darkNights,
-		leaving: leaving.map((s) => ({ date: s.date, assignments: s.assignments, results: s.results }))
+		leaving: leaving.map((s) => ({ date: s.date, assignments: s.assignments, results: s.results })),
+		overlaps
 	};
+}
+
+/**
+ * What to ask when saving would put nights on top of another season's (or a one-off) show and the
+ * planner has not yet ticked that both should stay; null when there is nothing to ask.
+ */
+export function overlapQuestion(overlaps: OverlappingNight[], confirmed: boolean): string | null {
+	if (!overlaps.length || confirmed) return null;
+	const n = overlaps.length;
+	return `${n === 1 ? 'A night' : `${n} nights`} of this season ${n === 1 ? 'falls' : 'fall'} on another show's doors (listed below). Tick “Keep both shows on these nights” to save anyway, or change the rule or dark nights.`;
 }

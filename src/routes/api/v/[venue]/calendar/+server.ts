@@ -40,7 +40,18 @@ export const GET: RequestHandler = async (event) => {
 	const wall = (at: Date) => at.toISOString();
 	const person = event.locals.person!;
 	const items: CalendarItem[] = [];
-	let list = await showsBetween(db, venue.id, start, end);
+	const [found, seasonList] = await Promise.all([
+		showsBetween(db, venue.id, start, end),
+		db
+			.select({ id: seasons.id, name: seasons.name, dark: seasons.darkNights })
+			.from(seasons)
+			.where(eq(seasons.venueId, venue.id))
+	]);
+	let list = found;
+	// Each night says which season it belongs to, so two seasons side by side are told apart.
+	const seasonName = new Map(seasonList.map((s) => [s.id, s.name]));
+	const of = (seasonId: string | null) =>
+		(seasonId && seasonName.get(seasonId)) || (seasonId ? 'Season' : 'One-off');
 	if (venue.role === 'crew') {
 		const mine = await db
 			.select({
@@ -73,7 +84,7 @@ export const GET: RequestHandler = async (event) => {
 				kind: 'dark',
 				start: s.date,
 				end: nextDate(s.date),
-				title: 'Dark night',
+				title: `${of(s.seasonId)}: dark night`,
 				allDay: true,
 				showId: s.id
 			});
@@ -84,7 +95,7 @@ export const GET: RequestHandler = async (event) => {
 			kind: 'show',
 			start: wall(s.doorsOpen),
 			end: wall(s.doorsClose),
-			title: `${s.openingNight ? 'Opening night' : 'Show'}${s.status === 'cancelled' ? ' (cancelled)' : ''}`,
+			title: `${of(s.seasonId)}: ${s.openingNight ? 'opening night' : 'show'}${s.status === 'cancelled' ? ' (cancelled)' : ''}`,
 			allDay: false,
 			showId: s.id,
 			oneOff: s.seasonId === null,
@@ -103,11 +114,7 @@ export const GET: RequestHandler = async (event) => {
 		}
 	}
 	if (venue.role !== 'crew') {
-		const all = await db
-			.select({ id: seasons.id, name: seasons.name, dark: seasons.darkNights })
-			.from(seasons)
-			.where(eq(seasons.venueId, venue.id));
-		for (const season of all) {
+		for (const season of seasonList) {
 			for (const d of season.dark) {
 				if (d >= from && d < to) {
 					items.push({
@@ -115,7 +122,7 @@ export const GET: RequestHandler = async (event) => {
 						kind: 'dark',
 						start: d,
 						end: nextDate(d),
-						title: 'Dark night',
+						title: `${season.name}: dark night`,
 						allDay: true
 					});
 				}

@@ -12,10 +12,11 @@ import {
 	recordedNights,
 	removedBy,
 	seasonShows,
+	overlappingNights,
 	updateSeason
 } from '$lib/server/schedule/seasons';
 import { localDay, localTime } from '$lib/util/when';
-import { previewOf, readSeasonForm } from '../season-form.server';
+import { overlapQuestion, previewOf, readSeasonForm } from '../season-form.server';
 import type { Actions, PageServerLoad } from './$types';
 
 async function findSeason(venueId: string, id: string) {
@@ -81,10 +82,13 @@ export const actions: Actions = {
 			return fail(404, { message: 'That season no longer exists.' });
 		const read = await readSeasonForm(event.request, venue.timeZone);
 		if (!read.ok) return read.failure;
-		const leaving = await leavingShows(db, venue.id, event.params.season, read.nights);
+		const [leaving, overlaps] = await Promise.all([
+			leavingShows(db, venue.id, event.params.season, read.nights),
+			overlappingNights(db, venue.id, read.nights, event.params.season)
+		]);
 		return {
 			values: read.values,
-			preview: previewOf(read.fields, read.nights, venue.timeZone, leaving)
+			preview: previewOf(read.fields, read.nights, venue.timeZone, leaving, overlaps)
 		};
 	},
 	save: async (event) => {
@@ -95,18 +99,27 @@ export const actions: Actions = {
 		if (!read.ok) return read.failure;
 		// Nights that leave the rule go only when the manager has seen and ticked them (nights with
 		// crew assigned only with the second tick); otherwise the preview comes back asking.
-		const leaving = await leavingShows(db, venue.id, event.params.season, read.nights);
+		const [leaving, overlaps] = await Promise.all([
+			leavingShows(db, venue.id, event.params.season, read.nights),
+			overlappingNights(db, venue.id, read.nights, event.params.season)
+		]);
 		const going = removedBy(leaving, { confirmed: 'all', assigned: read.removal.assigned });
 		const unconfirmed = going.filter((s) => !read.removal.confirmed.has(s.date));
-		if (unconfirmed.length) {
+		const overlap = overlapQuestion(overlaps, read.overlapConfirmed);
+		if (unconfirmed.length || overlap) {
 			const n = going.length;
 			return fail(400, {
 				values: read.values,
-				preview: previewOf(read.fields, read.nights, venue.timeZone, leaving),
+				preview: previewOf(read.fields, read.nights, venue.timeZone, leaving, overlaps),
 				errors: {
-					confirmRemoval: [
-						`Saving removes ${n === 1 ? 'a night' : `${n} nights`} that ${n === 1 ? 'is' : 'are'} no longer in the season (listed below). Tick “Remove the nights listed” to go ahead.`
-					]
+					...(unconfirmed.length
+						? {
+								confirmRemoval: [
+									`Saving removes ${n === 1 ? 'a night' : `${n} nights`} that ${n === 1 ? 'is' : 'are'} no longer in the season (listed below). Tick “Remove the nights listed” to go ahead.`
+								]
+							}
+						: {}),
+					...(overlap ? { confirmOverlap: [overlap] } : {})
 				}
 			});
 		}
