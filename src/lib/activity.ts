@@ -61,6 +61,10 @@ const SIMPLE: Record<string, (d: Detail) => string> = {
 	'room.changed': (d) => `renamed a room to ${quoted(d.name, 'a new name')}`,
 	'room.removed': (d) => `removed the room ${quoted(d.name, '')}`.trim(),
 	'position.added': (d) => `added the position ${quoted(d.name, '')}`.trim(),
+	'position.changed': (d) =>
+		d.was
+			? `renamed the position ${quoted(d.was, '')} to ${quoted(d.name, 'a new name')}`
+			: `changed the position ${quoted(d.name, '')}`.trim(),
 	'position.removed': (d) => `removed the position ${quoted(d.name, '')}`.trim(),
 	'controller.added': (d) => `added the controller ${quoted(d.name, '')}`.trim(),
 	'controller.changed': (d) => `changed the controller ${quoted(d.name, '')}`.trim(),

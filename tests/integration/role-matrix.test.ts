@@ -131,7 +131,7 @@ const MATRIX: Record<string, Entry> = {
 	},
 	'/(app)/v/[venue]/positions': {
 		load: 'notCrew',
-		actions: { add: 'planners', remove: 'planners' }
+		actions: { add: 'planners', edit: 'planners', remove: 'planners' }
 	},
 	'/(app)/v/[venue]/safety': {
 		load: 'planners',

@@ -166,7 +166,22 @@ export const positionSchema = z.object({
 	safetyPost: z
 		.string()
 		.optional()
-		.transform((v) => v === 'on' || v === 'true')
+		.transform((v) => v === 'on' || v === 'true'),
+	/** How many people the post needs each night; left empty, one. */
+	headcount: z.preprocess(
+		(v) => (v === '' || v == null ? undefined : v),
+		z.coerce
+			.number({ error: 'Give how many people this post needs, as a whole number.' })
+			.int('Give a whole number of people.')
+			.min(1, 'A post needs at least 1 person.')
+			.max(50, 'At most 50 people on one post.')
+			.default(1)
+	)
+});
+
+/** Changing a position in place: its id with the same fields. */
+export const positionEditSchema = positionSchema.extend({
+	id: z.uuid('That position does not exist.')
 });
 
 export const showTimesSchema = z.object({

@@ -90,6 +90,8 @@ export const positions = pgTable(
 		required: boolean('required').notNull().default(true),
 		/** A safety post gets every room's hazards and the venue's safety items on its run sheet. */
 		safetyPost: boolean('safety_post').notNull().default(false),
+		/** People the post needs each night. */
+		headcount: integer('headcount').notNull().default(1),
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 	},
 	(t) => [uniqueIndex('positions_venue_name').on(t.venueId, t.name)]

@@ -19,6 +19,7 @@ export function listPositions(db: Db, venueId: string) {
 			name: positions.name,
 			required: positions.required,
 			safetyPost: positions.safetyPost,
+			headcount: positions.headcount,
 			roomId: positions.roomId,
 			roomName: rooms.name
 		})
@@ -72,13 +73,16 @@ export async function showConflicts(
 	const conflicts: Conflict[] = [];
 	if (show.status === 'scheduled') {
 		for (const p of posts) {
-			if (p.required && !here.some((a) => a.positionId === p.id)) {
-				conflicts.push({
-					kind: 'unfilled',
-					positionId: p.id,
-					message: `${p.name} is required and nobody is assigned.`
-				});
-			}
+			if (!p.required) continue;
+			const filled = here.filter((a) => a.positionId === p.id).length;
+			if (filled >= p.headcount) continue;
+			conflicts.push({
+				kind: 'unfilled',
+				positionId: p.id,
+				message: !filled
+					? `${p.name} is required and nobody is assigned.`
+					: `${p.name} needs ${p.headcount} people and has ${filled}.`
+			});
 		}
 	}
 	const people = [...new Set(here.map((a) => a.personId))];

@@ -7,7 +7,7 @@ import { uniqueErrors } from '$lib/server/db/errors';
 import { positions, rooms } from '$lib/server/db/schema';
 import { keep, parseForm } from '$lib/server/forms';
 import { listPositions } from '$lib/server/schedule/shows';
-import { idSchema, positionSchema } from '$lib/schemas/schedule';
+import { idSchema, positionEditSchema, positionSchema } from '$lib/schemas/schedule';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -60,6 +60,55 @@ export const actions: Actions = {
 			detail: { name: parsed.data.name }
 		});
 		return { action: 'add', saved: true };
+	},
+	edit: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const parsed = await parseForm(event.request, positionEditSchema);
+		const id = typeof parsed.raw.id === 'string' ? parsed.raw.id : '';
+		if (!parsed.ok)
+			return fail(400, { action: 'edit', id, values: keep(parsed.raw), errors: parsed.errors });
+		const { id: _id, ...fields } = parsed.data;
+		if (!(await roomOfVenue(venue.id, fields.roomId)))
+			return fail(400, {
+				action: 'edit',
+				id,
+				values: keep(parsed.raw),
+				errors: { roomId: ['Pick a room from the list.'] }
+			});
+		let before: (typeof positions.$inferSelect)[];
+		let done: (typeof positions.$inferSelect)[];
+		try {
+			[before, done] = await db.transaction(async (tx) => {
+				const old = await tx
+					.select()
+					.from(positions)
+					.where(and(eq(positions.id, parsed.data.id), eq(positions.venueId, venue.id)))
+					.for('update');
+				if (!old.length) return [[], []];
+				const changed = await tx
+					.update(positions)
+					.set(fields)
+					.where(and(eq(positions.id, parsed.data.id), eq(positions.venueId, venue.id)))
+					.returning();
+				return [old, changed];
+			});
+		} catch (e) {
+			const errors = uniqueErrors(e);
+			if (!errors) throw e;
+			return fail(400, { action: 'edit', id, values: keep(parsed.raw), errors });
+		}
+		if (!done.length)
+			return fail(404, { action: 'edit', id, message: 'That position no longer exists.' });
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'position.changed',
+			detail: {
+				name: done[0].name,
+				...(before[0].name !== done[0].name ? { was: before[0].name } : {})
+			}
+		});
+		return { action: 'edit', id, saved: true };
 	},
 	remove: async (event) => {
 		const venue = requireRole(event, ...PLANNERS);

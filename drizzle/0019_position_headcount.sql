@@ -1,0 +1,1 @@
+ALTER TABLE "positions" ADD COLUMN "headcount" integer DEFAULT 1 NOT NULL;
