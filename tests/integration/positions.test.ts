@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it, vi } from 'vitest';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { assignments, positions } from '../../src/lib/server/db/schema';
 import { createSeason, seasonShows } from '../../src/lib/server/schedule/seasons';
 import { showConflicts } from '../../src/lib/server/schedule/shows';
@@ -13,6 +13,7 @@ vi.mock('$env/dynamic/private', () => ({ env: process.env }));
 useTestEnv();
 const db = testDb();
 const page = await import('../../src/routes/(app)/v/[venue]/positions/+page.server');
+const showPage = await import('../../src/routes/(app)/v/[venue]/shows/[show=uuid]/+page.server');
 
 let manager: ReturnType<typeof asSession>;
 let slug: string;
@@ -89,5 +90,40 @@ describe('changing a position in place', () => {
 		await edit({ name: 'Front gate', required: 'on', headcount: '2' });
 		const none = (await showConflicts(db, venueId, night.id)).filter((c) => c.kind === 'unfilled');
 		expect(none).toEqual([]);
+	});
+
+	it('moves one assignment to another post with its own call, in place', async () => {
+		const [night] = await db.select().from(assignments).where(eq(assignments.personId, crewIds[0]));
+		const [queue] = await db
+			.select()
+			.from(positions)
+			.where(and(eq(positions.venueId, venueId), eq(positions.name, 'Queue line')));
+		const there = {
+			path: `/v/${slug}/shows/${night.showId}`,
+			params: { venue: slug, show: night.showId },
+			person: manager
+		};
+		const move = (form: Record<string, string>) =>
+			callAction(showPage.actions.reassign as never, { ...there, form });
+		const res = await move({ id: night.id, positionId: queue.id, call: '17:45' });
+		expect(res.status).toBe(200);
+		const [row] = await db.select().from(assignments).where(eq(assignments.id, night.id));
+		expect(row.positionId).toBe(queue.id);
+		// 17:45 on 1 October 2027 in London is 16:45 UTC (BST, UTC+1).
+		expect(row.callOverride?.toISOString()).toBe('2027-10-01T16:45:00.000Z');
+
+		const late = await move({ id: night.id, positionId: queue.id, call: '23:30' });
+		expect(late.status).toBe(400);
+		expect((late.body!.errors as Record<string, string[]>).call[0]).toBe(
+			'The call must be before doors close.'
+		);
+		const gone = await move({
+			id: '00000000-0000-4000-8000-000000000000',
+			positionId: queue.id,
+			call: ''
+		});
+		expect(gone.status).toBe(404);
+		const [kept] = await db.select().from(assignments).where(eq(assignments.id, night.id));
+		expect(kept.callOverride?.toISOString()).toBe('2027-10-01T16:45:00.000Z');
 	});
 });

@@ -187,6 +187,7 @@ const MATRIX: Record<string, Entry> = {
 			times: 'planners',
 			status: 'planners',
 			assign: 'planners',
+			reassign: 'planners',
 			unassign: 'planners',
 			exclude: 'planners',
 			include: 'planners',

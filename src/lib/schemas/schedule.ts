@@ -216,6 +216,11 @@ export const assignSchema = z.object({
 		)
 });
 
+/** Changing one assignment in place: its post and its own call (empty: the show's call). */
+export const reassignSchema = assignSchema.omit({ personId: true }).extend({
+	id: z.uuid('That assignment no longer exists.')
+});
+
 export const MOVE_SHOW_BODY =
 	'Send a JSON body with showId (the show to move) and date (its new day, YYYY-MM-DD), for example {"showId": "…", "date": "2026-10-16"}.';
 

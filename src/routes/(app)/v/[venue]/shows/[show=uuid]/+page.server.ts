@@ -5,6 +5,7 @@ import { nextDate, wallToInstant } from '$lib/schedule';
 import { PLANNERS, requireRole } from '$lib/server/auth/guard';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db';
+import { isUniqueViolation } from '$lib/server/db/errors';
 import {
 	assignments,
 	memberships,
@@ -27,7 +28,13 @@ import { restoreSchema, sceneExclusionSchema, signOffSchema } from '$lib/schemas
 import { progressByRoom, signOffBlockers } from '$lib/checklists/view';
 import { keep, parseForm } from '$lib/server/forms';
 import { getShow, listPositions, showAssignments, showConflicts } from '$lib/server/schedule/shows';
-import { assignSchema, idSchema, showStatusSchema, showTimesSchema } from '$lib/schemas/schedule';
+import {
+	assignSchema,
+	idSchema,
+	reassignSchema,
+	showStatusSchema,
+	showTimesSchema
+} from '$lib/schemas/schedule';
 import { localTime } from '$lib/util/when';
 import { noticeRunSheetChanges, runSheetDelivery } from '$lib/server/runsheets/send';
 import type { Actions, PageServerLoad } from './$types';
@@ -306,6 +313,70 @@ export const actions: Actions = {
 		});
 		await noticeRunSheetChanges(db, venue.id, show.id, event);
 		return { action: 'assign', saved: true };
+	},
+	reassign: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const show = await findShow(venue.id, event.params.show);
+		if (!show) return fail(404, { action: 'reassign', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, reassignSchema);
+		const id = typeof parsed.raw.id === 'string' ? parsed.raw.id : '';
+		if (!parsed.ok)
+			return fail(400, { action: 'reassign', id, values: keep(parsed.raw), errors: parsed.errors });
+		const { positionId, call } = parsed.data;
+		const post = (await listPositions(db, venue.id)).find((p) => p.id === positionId);
+		if (!post)
+			return fail(400, {
+				action: 'reassign',
+				id,
+				values: keep(parsed.raw),
+				errors: { positionId: ['Pick a position.'] }
+			});
+		const callOverride = call ? wallToInstant(show.date, call, venue.timeZone) : null;
+		if (callOverride && callOverride >= show.doorsClose)
+			return fail(400, {
+				action: 'reassign',
+				id,
+				values: keep(parsed.raw),
+				errors: { call: ['The call must be before doors close.'] }
+			});
+		let done;
+		try {
+			done = await db
+				.update(assignments)
+				.set({ positionId, callOverride })
+				.where(
+					and(
+						eq(assignments.id, parsed.data.id),
+						eq(assignments.venueId, venue.id),
+						eq(assignments.showId, show.id)
+					)
+				)
+				.returning();
+		} catch (e) {
+			if (!isUniqueViolation(e)) throw e;
+			return fail(400, {
+				action: 'reassign',
+				id,
+				values: keep(parsed.raw),
+				errors: { positionId: [`They are already assigned as ${post.name} on this show.`] }
+			});
+		}
+		if (!done.length)
+			return fail(404, { action: 'reassign', id, message: 'That assignment no longer exists.' });
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'show.assigned',
+			detail: {
+				show: show.id,
+				date: show.date,
+				position: post.name,
+				person: done[0].personId,
+				assignment: done[0].id
+			}
+		});
+		await noticeRunSheetChanges(db, venue.id, show.id, event);
+		return { action: 'reassign', id, saved: true };
 	},
 	unassign: async (event) => {
 		const venue = requireRole(event, ...PLANNERS);
