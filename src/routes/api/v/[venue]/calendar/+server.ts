@@ -50,8 +50,11 @@ export const GET: RequestHandler = async (event) => {
 	let list = found;
 	// Each night says which season it belongs to, so two seasons side by side are told apart.
 	const seasonName = new Map(seasonList.map((s) => [s.id, s.name]));
-	const of = (seasonId: string | null) =>
-		(seasonId && seasonName.get(seasonId)) || (seasonId ? 'Season' : 'One-off');
+	// What the night is comes first, so a narrow day cell still shows it when the name is cut short.
+	const of = (what: string, seasonId: string | null) =>
+		seasonId
+			? `${what} · ${seasonName.get(seasonId) ?? 'a season'}`
+			: `One-off ${what.toLowerCase()}`;
 	if (venue.role === 'crew') {
 		const mine = await db
 			.select({
@@ -84,7 +87,7 @@ export const GET: RequestHandler = async (event) => {
 				kind: 'dark',
 				start: s.date,
 				end: nextDate(s.date),
-				title: `${of(s.seasonId)}: dark night`,
+				title: of('Dark night', s.seasonId),
 				allDay: true,
 				showId: s.id
 			});
@@ -95,7 +98,7 @@ export const GET: RequestHandler = async (event) => {
 			kind: 'show',
 			start: wall(s.doorsOpen),
 			end: wall(s.doorsClose),
-			title: `${of(s.seasonId)}: ${s.openingNight ? 'opening night' : 'show'}${s.status === 'cancelled' ? ' (cancelled)' : ''}`,
+			title: `${of(s.openingNight ? 'Opening night' : 'Show', s.seasonId)}${s.status === 'cancelled' ? ' (cancelled)' : ''}`,
 			allDay: false,
 			showId: s.id,
 			oneOff: s.seasonId === null,
@@ -122,7 +125,7 @@ export const GET: RequestHandler = async (event) => {
 						kind: 'dark',
 						start: d,
 						end: nextDate(d),
-						title: `${season.name}: dark night`,
+						title: `Dark night · ${season.name}`,
 						allDay: true
 					});
 				}
