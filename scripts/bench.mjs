@@ -9,6 +9,9 @@
 //   BENCH_PROPS=2000 BENCH_SCENES=200 BENCH_PER_SCENE=3   size of the large venue
 //   BENCH_ROWS=1000000   capture rows
 //   BENCH_SKIP_BUILD=1   use the build/ already there
+//   BENCH_ROUTES=checklist,show   only the routes whose name contains one of these (the bare route,
+//     signed out, always runs as the floor)
+//   BENCH_ROUTES_ONLY=1   skip season expansion and capture analysis
 import http from 'node:http';
 import { existsSync, readFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
@@ -199,7 +202,14 @@ try {
 	];
 	/** @type {number | null} */
 	let floor = null;
-	for (const [what, path, cookie] of routes) {
+	const only = (process.env.BENCH_ROUTES ?? '')
+		.split(',')
+		.map((w) => w.trim().toLowerCase())
+		.filter(Boolean);
+	const chosen = routes.filter(
+		([what], i) => i === 0 || !only.length || only.some((w) => what.toLowerCase().includes(w))
+	);
+	for (const [what, path, cookie] of chosen) {
 		await load(path, cookie, 1);
 		const r = await load(path, cookie, SECONDS);
 		if (r.failed > 0) console.error(`[bench] ${what}: ${r.failed} of ${r.count} requests not 200`);
@@ -219,32 +229,33 @@ try {
 		ratio(peakMemory, idleMemory)
 	]);
 	stopChildren();
+	if (!process.env.BENCH_ROUTES_ONLY) {
+		console.log('[bench] season expansion…');
+		const season = nodeJson(['--import', 'tsx', 'scripts/bench/season.ts']);
+		table.push([
+			`season expansion, 365-night DST rule (${season.nights} nights), median vs rrule's own`,
+			ms(season.appMs),
+			ms(season.rruleMs),
+			ratio(season.appMs, season.rruleMs)
+		]);
 
-	console.log('[bench] season expansion…');
-	const season = nodeJson(['--import', 'tsx', 'scripts/bench/season.ts']);
-	table.push([
-		`season expansion, 365-night DST rule (${season.nights} nights), median vs rrule's own`,
-		ms(season.appMs),
-		ms(season.rruleMs),
-		ratio(season.appMs, season.rruleMs)
-	]);
-
-	console.log('[bench] capture analysis…');
-	const rows = process.env.BENCH_ROWS ?? '1000000';
-	const capture = nodeJson(['--import', 'tsx', 'scripts/bench/capture.ts', rows, '--json']);
-	const n = Number(rows).toLocaleString('en');
-	table.push([
-		`capture analysis, ${n} rows, best of 3 vs plain read and split`,
-		ms(capture.stream.ms),
-		ms(capture.plain.ms),
-		ratio(capture.stream.ms, capture.plain.ms)
-	]);
-	table.push([
-		`capture analysis, ${n} rows, peak memory vs plain read and split`,
-		mb(capture.stream.peak),
-		mb(capture.plain.peak),
-		ratio(capture.stream.peak, capture.plain.peak)
-	]);
+		console.log('[bench] capture analysis…');
+		const rows = process.env.BENCH_ROWS ?? '1000000';
+		const capture = nodeJson(['--import', 'tsx', 'scripts/bench/capture.ts', rows, '--json']);
+		const n = Number(rows).toLocaleString('en');
+		table.push([
+			`capture analysis, ${n} rows, best of 3 vs plain read and split`,
+			ms(capture.stream.ms),
+			ms(capture.plain.ms),
+			ratio(capture.stream.ms, capture.plain.ms)
+		]);
+		table.push([
+			`capture analysis, ${n} rows, peak memory vs plain read and split`,
+			mb(capture.stream.peak),
+			mb(capture.plain.peak),
+			ratio(capture.stream.peak, capture.plain.peak)
+		]);
+	}
 } catch (e) {
 	failed = true;
 	console.error(`[bench] ${e instanceof Error ? e.message : e}`);

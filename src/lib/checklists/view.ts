@@ -127,3 +127,13 @@ export function signOffBlockers(checks: CheckView[]): string[] {
 	}
 	return out.sort((a, b) => (a.startsWith('Failed') ? 0 : 1) - (b.startsWith('Failed') ? 0 : 1));
 }
+
+/** The hazards the safety caution names, from the keys of the night's safety checks. */
+export function hazardsOf(checks: Pick<CheckView, 'key'>[]): string[] {
+	const keys = checks.map((c) => c.key);
+	const out: string[] = [];
+	if (keys.some((k) => k.startsWith('safety:pinch-guards'))) out.push('pneumatics');
+	if (keys.some((k) => k.startsWith('safety:fog-'))) out.push('fog');
+	if (keys.some((k) => k.startsWith('safety:strobe-signage'))) out.push('strobes');
+	return out;
+}

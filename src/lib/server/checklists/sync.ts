@@ -224,10 +224,11 @@ export function checklistStale(row: {
 	return !row.signed && row.checklistVersion !== row.inputsVersion;
 }
 
-const freshness = (db: Pick<Db, 'select'>, venueId: string, showId: string) =>
+export const freshness = (db: Pick<Db, 'select'>, venueId: string, showId: string) =>
 	db
 		.select({
 			checklistVersion: shows.checklistVersion,
+			activity: shows.checklistActivity,
 			inputsVersion: venues.checklistInputsVersion,
 			signed: sql<boolean>`exists (select 1 from ${signOffs} where ${signOffs.showId} = ${shows.id})`
 		})

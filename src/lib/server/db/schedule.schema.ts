@@ -69,6 +69,11 @@ export const shows = pgTable(
 		 * has none yet or the scenes left out of it changed.
 		 */
 		checklistVersion: bigint('checklist_version', { mode: 'number' }),
+		/**
+		 * Raised (by triggers) on every write to the show's checks, results, stand-downs, restores and
+		 * sign-off: a copy of the checklist read at one number is still right at the same number.
+		 */
+		checklistActivity: bigint('checklist_activity', { mode: 'number' }).notNull().default(0),
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 		// The scenes that run on a night are linked by a show_scenes table once scenes exist.
 	},

@@ -10,9 +10,7 @@ import {
 	listPositions
 } from '$lib/server/schedule/shows';
 import { localTime } from '$lib/util/when';
-import { loadChecklist } from '$lib/server/checklists/state';
-import { withFreshChecklist } from '$lib/server/checklists/sync';
-import { progressByRoom, stateOf } from '$lib/checklists/view';
+import { currentChecklist } from '$lib/server/checklists/copies';
 import { runSheetDelivery } from '$lib/server/runsheets/send';
 import type { PageServerLoad } from './$types';
 
@@ -32,16 +30,13 @@ export const load: PageServerLoad = async (event) => {
 	let next = null;
 	if (show) {
 		const summary = async () => {
-			const state = await withFreshChecklist(db, venue.id, show.id, () =>
-				loadChecklist(db, venue, show.id)
-			);
-			const states = state.checks.map(stateOf);
+			const copy = await currentChecklist(db, venue, show.id);
 			return {
-				total: states.length,
-				pass: states.filter((s) => s === 'pass').length,
-				fail: states.filter((s) => s === 'fail').length,
-				rooms: progressByRoom(state.checks),
-				signedBy: state.signOff?.personName ?? null
+				total: copy.counts.total,
+				pass: copy.counts.pass,
+				fail: copy.counts.fail,
+				rooms: copy.progress,
+				signedBy: copy.view.signOff?.personName ?? null
 			};
 		};
 		const scheduled = show.status === 'scheduled';

@@ -21,11 +21,10 @@ import {
 } from '$lib/server/db/schema';
 import { notifyShow } from '$lib/server/checklists/live';
 import { crewProblemsOf, restoreStandDown, signOff } from '$lib/server/checklists/signoff';
-import { loadChecklist } from '$lib/server/checklists/state';
-import { withFreshChecklist } from '$lib/server/checklists/sync';
+import { currentChecklist } from '$lib/server/checklists/copies';
 import { changesAfterSignOff, nightPropIds, scenesForShow } from '$lib/server/scenes/for-show';
 import { restoreSchema, sceneExclusionSchema, signOffSchema } from '$lib/schemas/checklist';
-import { progressByRoom, signOffBlockers } from '$lib/checklists/view';
+import { stateOf } from '$lib/checklists/view';
 import { keep, parseForm } from '$lib/server/forms';
 import { getShow, listPositions, showAssignments, showConflicts } from '$lib/server/schedule/shows';
 import {
@@ -38,6 +37,9 @@ import {
 import { localTime } from '$lib/util/when';
 import { noticeRunSheetChanges, runSheetDelivery } from '$lib/server/runsheets/send';
 import type { Actions, PageServerLoad } from './$types';
+
+/** Latest results the show page lists. */
+const HISTORY_SHOWN = 12;
 
 async function findShow(venueId: string, id: string) {
 	if (!z.uuid().safeParse(id).success) return null;
@@ -60,7 +62,7 @@ export const load: PageServerLoad = async (event) => {
 		here,
 		[season],
 		members,
-		checklist,
+		copy,
 		night,
 		left,
 		roomRows,
@@ -82,7 +84,7 @@ export const load: PageServerLoad = async (event) => {
 			.innerJoin(users, eq(users.id, memberships.personId))
 			.where(eq(memberships.venueId, venue.id))
 			.orderBy(asc(users.name)),
-		withFreshChecklist(db, venue.id, show.id, () => loadChecklist(db, venue, show.id)),
+		currentChecklist(db, venue, show.id),
 		scenesForShow(db, venue.id, show.id),
 		db
 			.select({
@@ -109,6 +111,7 @@ export const load: PageServerLoad = async (event) => {
 		showConflicts(db, venue.id, show.id, { show }),
 		planner ? runSheetDelivery(db, venue.id, show.id) : null
 	]);
+	const checklist = copy.view;
 	const roomNames = new Map(roomRows.map((r) => [r.id, r.name]));
 	const roomName = (id: string | null) => (id ? (roomNames.get(id) ?? null) : null);
 	const lateChanges = checklist.signOff
@@ -119,9 +122,15 @@ export const load: PageServerLoad = async (event) => {
 		checklist.checks.filter((c) => c.latest?.outcome === 'fail' && c.propId).map((c) => c.propId)
 	);
 	return {
-		checklist,
-		progress: progressByRoom(checklist.checks),
-		blockers: signOffBlockers(checklist.checks),
+		// The page shows counts, the failing checks and the latest results, not every check.
+		checklist: {
+			...checklist,
+			checks: checklist.checks.filter((c) => stateOf(c) === 'fail'),
+			history: checklist.history.slice(0, HISTORY_SHOWN)
+		},
+		counts: copy.counts,
+		progress: copy.progress,
+		blockers: copy.blockers,
 		scenes: night.map((s) => ({
 			id: s.id,
 			name: s.name,

@@ -1,0 +1,1 @@
+ALTER TABLE "shows" ADD COLUMN "checklist_activity" bigint DEFAULT 0 NOT NULL;
