@@ -7,6 +7,8 @@ declare global {
 			person: SessionPerson | null;
 			/** Set by the venue hook for routes under /v/[venue]; the person's membership in it. */
 			venue: VenueContext | null;
+			/** The session hook already read the venue with the session (one query for both). */
+			venueResolved?: boolean;
 			/** Theme chosen by the person, read from a cookie so the server renders it. */
 			theme: 'dusk' | 'low-light';
 		}

@@ -1,8 +1,8 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { and, eq, gt, lt } from 'drizzle-orm';
 import type { Db } from '../db/client';
-import { sessions, users } from '../db/schema';
-import type { SessionPerson } from './types';
+import { memberships, sessions, users, venues } from '../db/schema';
+import type { SessionPerson, VenueContext } from './types';
 
 /**
  * Sessions live in PostgreSQL, one row per signed-in browser, so they can be ended: signing out
@@ -63,6 +63,49 @@ export async function findSession(
 	if (!row) return null;
 	const { expires, ...person } = row;
 	return { person, expires };
+}
+
+/**
+ * The person behind a session token and, for a route under a venue, their membership in it, in one
+ * indexed query (the session's hash, the venue's slug, the membership's venue and person). venue is
+ * null when there is no such venue or the person is not a member of it.
+ */
+export async function findSessionAndVenue(
+	db: Db,
+	token: string | undefined,
+	slug: string,
+	now = new Date()
+): Promise<{ person: SessionPerson; expires: Date; venue: VenueContext | null } | null> {
+	if (!plausible(token)) return null;
+	const [row] = await db
+		.select({
+			id: users.id,
+			name: users.name,
+			email: users.email,
+			expires: sessions.expires,
+			venueId: venues.id,
+			slug: venues.slug,
+			venueName: venues.name,
+			kind: venues.kind,
+			timeZone: venues.timeZone,
+			role: memberships.role
+		})
+		.from(sessions)
+		.innerJoin(users, eq(users.id, sessions.userId))
+		.leftJoin(venues, eq(venues.slug, slug))
+		.leftJoin(
+			memberships,
+			and(eq(memberships.venueId, venues.id), eq(memberships.personId, users.id))
+		)
+		.where(and(eq(sessions.sessionToken, hashOf(token)), gt(sessions.expires, now)))
+		.limit(1);
+	if (!row) return null;
+	const { id, name, email, expires, venueId, venueName, kind, timeZone, role } = row;
+	const venue =
+		venueId && role && kind && timeZone && venueName
+			? { id: venueId, slug: row.slug!, name: venueName, kind, timeZone, role }
+			: null;
+	return { person: { id, name, email }, expires, venue };
 }
 
 /** When a session in use should have its end pushed back: once a day at most. */

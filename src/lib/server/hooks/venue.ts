@@ -6,6 +6,7 @@ import { isUnstorable } from '../text';
 
 /** For routes with a [venue] parameter, load the venue and the person's membership in it. */
 export const venueHandle: Handle = async ({ event, resolve }) => {
+	if (event.locals.venueResolved) return resolve(event);
 	event.locals.venue = null;
 	const slug = event.params.venue;
 	if (slug && event.locals.person && !isUnstorable(slug)) {

@@ -11,7 +11,7 @@ import type { PageServerLoad } from './$types';
  * or the first rooms up to this many) and every room's counts; the rest come from the checks API
  * right after, which is also the copy a phone keeps for use without signal.
  */
-export const FIRST_CHECKS = 150;
+const FIRST_CHECKS = 150;
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
