@@ -2,6 +2,7 @@ import { describe, expect, it, vi } from 'vitest';
 import { and, eq, isNull } from 'drizzle-orm';
 import {
 	assignments,
+	checkResults,
 	checks,
 	outputs,
 	positions,
@@ -258,5 +259,26 @@ describe('statements per request', () => {
 		expect(await refreshUpcomingChecklists(db, new Date())).toBeGreaterThanOrEqual(1);
 		expect((await liveChecks(v.show.id)).filter((c) => c.propId !== null)).toEqual([]);
 		expect((await counted(() => requests.Tonight(v))).writes).toEqual([]);
+	});
+
+	it('answers a repeated read from the kept copy, and a result written by any path shows next read', async () => {
+		const v = await venueWith(2, 1);
+		const first = await counted(() => requests['checks API'](v));
+		// The kept copy: the access check (2) and the show's numbers (1), no checklist reads.
+		const again = await counted(() => requests['checks API'](v));
+		expect(again.count).toBeLessThan(first.count);
+		expect(again.count).toBeLessThanOrEqual(4);
+		const [check] = await liveChecks(v.show.id);
+		// Written straight to the table, not through the app: the show's counter still rises.
+		await db.insert(checkResults).values({
+			venueId: v.venue.id,
+			showId: v.show.id,
+			checkId: check.id,
+			outcome: 'fail',
+			clientId: crypto.randomUUID()
+		});
+		const answer = await requests['checks API'](v);
+		const body = answer.body as { checks: { id: string; latest: { outcome: string } | null }[] };
+		expect(body.checks.find((c) => c.id === check.id)?.latest?.outcome).toBe('fail');
 	});
 });
