@@ -99,7 +99,8 @@ export function parseLines(text: string): Parsed {
 		const [sensor, seq, reading, ...label] = parts;
 		items.push({ sensor, seq, reading, label: label.length ? label.join(' ') : undefined });
 	}
-	return checkAll(items, key, false);
+	const r = checkAll(items, key, false);
+	return r.ok ? r : { ...r, key };
 }
 
 export function parseJson(text: string): Parsed {
@@ -110,11 +111,19 @@ export function parseJson(text: string): Parsed {
 		return { ok: false, message: 'This is not valid JSON.' };
 	}
 	if (Array.isArray(body)) return checkAll(body, null, false);
-	if (typeof body !== 'object' || body === null || !Array.isArray((body as never)['readings']))
-		return { ok: false, message: 'Send an object with a "readings" list, or a list of readings.' };
-	const b = body as { readings: unknown[]; key?: unknown };
+	const b = (typeof body === 'object' && body !== null ? body : {}) as {
+		readings?: unknown;
+		key?: unknown;
+	};
 	const key = typeof b.key === 'string' ? b.key : null;
-	return checkAll(b.readings, key, false);
+	if (!Array.isArray(b.readings))
+		return {
+			ok: false,
+			key,
+			message: 'Send an object with a "readings" list, or a list of readings.'
+		};
+	const r = checkAll(b.readings, key, false);
+	return r.ok ? r : { ...r, key };
 }
 
 /** JSON when it looks like JSON (or says so), lines otherwise. */

@@ -36,7 +36,7 @@ export async function acceptMessage(
 			message: `A message may be at most ${MAX_BODY_BYTES / 1024} KB; send fewer readings at a time.`
 		};
 	const parsed = parseReadings(text, contentType);
-	const given = token ?? (parsed.ok ? parsed.key : null);
+	const given = token ?? parsed.key ?? null;
 	if (!given) return { ok: false, status: 401, message: 'This needs a board key.' };
 	const key = await keyForToken(db, given, now);
 	if (!key)
