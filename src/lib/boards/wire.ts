@@ -20,7 +20,8 @@ export interface WireReading {
 }
 
 export type Parsed =
-	{ ok: true; key: string | null; readings: WireReading[] } | { ok: false; message: string };
+	| { ok: true; key: string | null; readings: WireReading[] }
+	| { ok: false; message: string; key?: string | null };
 
 /** The short name of a sensor: 'Lid button' → 'lid-button'. */
 export function shortName(name: string): string {
