@@ -4,6 +4,7 @@
 import { ensureDependencies } from './lib/deps.mjs';
 import { LOCAL } from './lib/ports.mjs';
 import { ensurePostgres, stopPostgres } from './lib/pg.mjs';
+import { ensureMosquitto, stopMosquitto } from './lib/mosquitto.mjs';
 import { localSecret } from './lib/secret.mjs';
 import { runNode, startChild, stopChildren } from './lib/children.mjs';
 
@@ -17,8 +18,13 @@ const databaseUrl =
 	process.env.DATABASE_URL ??
 	(await ensurePostgres({ dataDir: ports.pgDir, port: ports.pgPort, database: 'gloaming' }));
 
+const usingLocalBroker = !process.env.MQTT_URL;
+const mqttUrl =
+	process.env.MQTT_URL ?? (await ensureMosquitto({ dataDir: ports.mqttDir, port: ports.mqttPort }));
+
 const env = {
 	DATABASE_URL: databaseUrl,
+	MQTT_URL: mqttUrl,
 	AUTH_SECRET: localSecret(),
 	ORIGIN: process.env.ORIGIN ?? origin,
 	HOST: '127.0.0.1',
@@ -41,6 +47,7 @@ function shutdown() {
 	stopping = true;
 	console.log('\n[setup] stopping…');
 	stopChildren();
+	if (usingLocalBroker) stopMosquitto({ dataDir: ports.mqttDir });
 	if (usingLocalDb)
 		setTimeout(() => {
 			stopPostgres({ dataDir: ports.pgDir });
@@ -77,6 +84,7 @@ if (!stopping) {
     Mail inbox      http://127.0.0.1:${ports.mailWebPort}/   (every e-mail the app sends lands here)
     PostgreSQL      ${usingLocalDb ? `127.0.0.1:${ports.pgPort}, data in ${ports.pgDir}/` : 'from DATABASE_URL'}
     Object store    ${env.S3_ENDPOINT} (bucket ${env.S3_BUCKET})
+    MQTT broker     ${mqttUrl} (boards publish to gloaming/<controller id>/readings)
 
   Demo sign-in (password for all: lantern-demo-2026)
     owner@gloaming.test      Owner of both venues

@@ -7,6 +7,7 @@ import { ensureDebianPackages, hasFile } from './lib/debian.mjs';
 import { ensureDependencies } from './lib/deps.mjs';
 import { LOCAL } from './lib/ports.mjs';
 import { ensurePostgres, recreateDatabase, stopPostgres } from './lib/pg.mjs';
+import { ensureMosquitto, stopMosquitto } from './lib/mosquitto.mjs';
 
 const t = LOCAL.test;
 const [mode, ...rest] = process.argv.slice(2);
@@ -44,9 +45,11 @@ function step(label, args, env = {}) {
 }
 
 let pgStarted = false;
+let mqttStarted = false;
 /** @param {number} code */
 function finish(code) {
 	if (pgStarted && !process.env.KEEP_TEST_DB) stopPostgres({ dataDir: t.pgDir });
+	if (mqttStarted && !process.env.KEEP_TEST_DB) stopMosquitto({ dataDir: t.mqttDir });
 	console.log(
 		`[test] ${code === 0 ? 'all passed' : 'FAILED'} in ${Math.round((Date.now() - started) / 1000)} s`
 	);
@@ -55,29 +58,34 @@ function finish(code) {
 
 const base = await ensurePostgres({ dataDir: t.pgDir, port: t.pgPort, database: 'postgres' });
 pgStarted = true;
+const mqttUrl = await ensureMosquitto({ dataDir: t.mqttDir, port: t.mqttPort });
+mqttStarted = true;
 const urlFor = (/** @type {string} */ db) => base.replace(/\/postgres$/, `/${db}`);
 
 step('sync SvelteKit types', ['node_modules/@sveltejs/kit/svelte-kit.js', 'sync']);
-if (!only) step('type check', [
-	'node_modules/svelte-check/bin/svelte-check',
-	'--tsconfig',
-	'./tsconfig.json',
-	'--threshold',
-	'error',
-	'--output',
-	'human'
-]);
-if (!only) step('type check (service worker)', [
-	'node_modules/typescript/bin/tsc',
-	'-p',
-	'tsconfig.service-worker.json'
-]);
+if (!only)
+	step('type check', [
+		'node_modules/svelte-check/bin/svelte-check',
+		'--tsconfig',
+		'./tsconfig.json',
+		'--threshold',
+		'error',
+		'--output',
+		'human'
+	]);
+if (!only)
+	step('type check (service worker)', [
+		'node_modules/typescript/bin/tsc',
+		'-p',
+		'tsconfig.service-worker.json'
+	]);
 if (!only) step('lint', ['node_modules/eslint/bin/eslint.js', '.']);
 
 if (only !== 'e2e') {
 	recreateDatabase({ port: t.pgPort, database: 'gloaming_it' });
 	step('unit and integration tests', ['node_modules/vitest/vitest.mjs', 'run', ...rest], {
-		TEST_DATABASE_URL: urlFor('gloaming_it')
+		TEST_DATABASE_URL: urlFor('gloaming_it'),
+		TEST_MQTT_URL: mqttUrl
 	});
 	if (only === 'vitest') finish(0);
 }

@@ -12,6 +12,7 @@ import { startRunSheetSweep } from '$lib/server/runsheets/timer';
 import { env } from '$env/dynamic/private';
 import { objectStore } from '$lib/server/objects';
 import { startObjectCleanup, stopObjectCleanup } from '$lib/server/object-cleanup';
+import { startBoards } from '$lib/server/boards/service';
 import { handleError } from '$lib/server/hooks/errors';
 import { guardHandle } from '$lib/server/hooks/guard';
 import { inputHandle } from '$lib/server/hooks/input';
@@ -31,10 +32,14 @@ export const init: ServerInit = async () => {
 	});
 	await startRunSheetSweep(boss, db, config.origin);
 	await startObjectCleanup(boss, () => objectStore(env));
+	const boards = await startBoards(db, config.mqttUrl, config.readingsRetentionDays);
 	// node build waits for open pools on SIGTERM: close the queue, then the database.
 	process.once('sveltekit:shutdown', () => {
 		stopObjectCleanup();
-		void stopMailQueue().finally(() => closeDb());
+		void boards
+			.stop()
+			.then(() => stopMailQueue())
+			.finally(() => closeDb());
 	});
 };
 

@@ -49,7 +49,8 @@ for (const [file, load] of Object.entries(modules)) {
 		.replace('../../src/routes', '')
 		.replace(/\/\+(page\.)?server\.ts$/, '')
 		.replace(/\/\([^)]+\)/g, '');
-	if (!route.startsWith('/api/v/') && !route.startsWith('/v/')) continue;
+	if (!route.startsWith('/api/v/') && !route.startsWith('/v/') && !route.startsWith('/api/boards/'))
+		continue;
 	if (route.endsWith('/live')) continue;
 	const params = [...route.matchAll(/\[(\w+)(?:=\w+)?\]/g)].map((m) => m[1]);
 	const mod = (await load()) as Record<string, unknown>;

@@ -5,6 +5,7 @@ import { createDb } from '../../src/lib/server/db/client';
 import { applyMigrations } from '../../src/lib/server/migrate';
 import { LOCAL } from '../../scripts/lib/ports.mjs';
 import { ensurePostgres, recreateDatabase } from '../../scripts/lib/pg.mjs';
+import { ensureMosquitto } from '../../scripts/lib/mosquitto.mjs';
 
 // The integration tests run against a real PostgreSQL built from the committed migrations.
 // `npm test` passes TEST_DATABASE_URL; run alone, this starts the test server itself.
@@ -20,6 +21,11 @@ export default async function setup(project: TestProject) {
 	await applyMigrations(db);
 	await sql.end();
 	project.provide('databaseUrl', url);
+	// The boards tests publish through a real broker; `npm test` passes TEST_MQTT_URL.
+	const mqttUrl =
+		process.env.TEST_MQTT_URL ??
+		(await ensureMosquitto({ dataDir: LOCAL.test.mqttDir, port: LOCAL.test.mqttPort }));
+	project.provide('mqttUrl', mqttUrl);
 
 	// The uploads tests need the object-store fake too; it runs inside this process.
 	const s3Port = LOCAL.test.s3Port;
@@ -43,5 +49,6 @@ declare module 'vitest' {
 	export interface ProvidedContext {
 		databaseUrl: string;
 		s3Endpoint: string;
+		mqttUrl: string;
 	}
 }

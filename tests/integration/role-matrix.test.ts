@@ -79,9 +79,10 @@ const SETS = {
 
 /**
  * public: no guard (the token in the address, if any, is the permission); person: anyone signed
- * in; invitee: only the person the invitation is for (nobody here); or one of the role sets.
+ * in; invitee: only the person the invitation is for (nobody here); board: only a board key in the
+ * Authorization header (no person, signed in or not, gets past: 401); or one of the role sets.
  */
-type Rule = 'public' | 'person' | 'invitee' | keyof typeof SETS;
+type Rule = 'public' | 'person' | 'invitee' | 'board' | keyof typeof SETS;
 const METHODS = ['GET', 'HEAD', 'POST', 'PUT', 'PATCH', 'DELETE', 'OPTIONS', 'fallback'] as const;
 type Method = (typeof METHODS)[number];
 type Entry = { layout?: Rule; load?: Rule; actions?: Record<string, Rule> } & {
@@ -103,6 +104,7 @@ const MATRIX: Record<string, Entry> = {
 	'/(app)': { layout: 'person' },
 	'/(app)/venues': { load: 'person', actions: { create: 'person' } },
 	'/api/offline': { GET: 'person' },
+	'/api/boards/readings': { POST: 'board' },
 
 	'/(app)/v/[venue]': { layout: 'member', load: 'member' },
 	'/(app)/v/[venue]/activity': { load: 'owner' },
@@ -123,7 +125,13 @@ const MATRIX: Record<string, Entry> = {
 	},
 	'/(app)/v/[venue]/controllers': {
 		load: 'member',
-		actions: { add: 'editors', save: 'editors', remove: 'editors' }
+		actions: {
+			add: 'editors',
+			save: 'editors',
+			remove: 'editors',
+			issueKey: 'editors',
+			revokeKey: 'editors'
+		}
 	},
 	'/(app)/v/[venue]/rooms': {
 		load: 'member',
@@ -289,7 +297,7 @@ const ACTORS: Actor[] = [...SEATS, 'outsider', 'signedOut'];
 
 function allows(rule: Rule, actor: Actor) {
 	if (rule === 'public') return true;
-	if (actor === 'signedOut') return false;
+	if (rule === 'board' || actor === 'signedOut') return false;
 	if (rule === 'person') return true;
 	if (rule === 'invitee' || actor === 'outsider') return false;
 	return (SETS[rule] as Seat[]).includes(actor);
@@ -530,6 +538,7 @@ const signInFor = (path: string) => `/sign-in?redirectTo=${encodeURIComponent(pa
 
 /** What the table says a refused caller gets from the route's own code. */
 function refusal(t: Target, actor: Actor, path: string): Partial<Answer> {
+	if (ruleOf(t) === 'board') return { status: 401 };
 	// path is the address with its query (?/name for an action): sign-in sends the person back there.
 	if (actor === 'signedOut')
 		return isApi(t) ? { status: 401 } : { status: 303, location: signInFor(path) };

@@ -53,6 +53,15 @@ export const config = {
 	get openVenues() {
 		return env.GLOAMING_OPEN_VENUES === 'yes';
 	},
+	/** Days of raw board readings kept (per-minute figures are kept for good): READINGS_RETENTION_DAYS. */
+	get readingsRetentionDays() {
+		const n = Number(env.READINGS_RETENTION_DAYS ?? 14);
+		return Number.isInteger(n) && n >= 1 ? n : 14;
+	},
+	/** The MQTT broker the boards publish to; unset, the app does not listen. */
+	get mqttUrl() {
+		return env.MQTT_URL || null;
+	},
 	get production() {
 		return env.NODE_ENV === 'production' && !env.ORIGIN?.startsWith('http://127.0.0.1');
 	}

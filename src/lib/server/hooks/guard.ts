@@ -24,7 +24,9 @@ export const guardHandle: Handle = ({ event, resolve }) => {
 	const id = event.route.id;
 	if (!id) return resolve(event);
 	const isApi = id.startsWith('/api/');
-	const needsPerson = id.startsWith('/(app)') || isApi;
+	// Boards carry a key instead of a session; their route checks it.
+	const isBoard = id.startsWith('/api/boards/');
+	const needsPerson = (id.startsWith('/(app)') || isApi) && !isBoard;
 	const isPageView = !isApi && (event.request.method === 'GET' || event.request.method === 'HEAD');
 	if (needsPerson && !event.locals.person) {
 		if (isApi) error(401, 'Sign in to use this.');

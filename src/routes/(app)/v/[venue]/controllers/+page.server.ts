@@ -6,22 +6,27 @@ import { db } from '$lib/server/db';
 import { controllers, props } from '$lib/server/db/schema';
 import { keep, parseForm } from '$lib/server/forms';
 import { venueControllers } from '$lib/server/props/queries';
+import { issueKey, revokeKey, venueKeys } from '$lib/server/boards/keys';
 import { controllerSchema } from '$lib/schemas/controller';
 import { pwmFrequencyForBits } from '$lib/electronics';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 
 const idSchema = z.object({ id: z.uuid('That controller does not exist.') });
+const keyIdSchema = z.object({ key: z.uuid('That key does not exist.') });
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
-	const [list, uses] = await Promise.all([
+	const canEdit = EDITORS.includes(venue.role);
+	const [list, uses, keys] = await Promise.all([
 		venueControllers(db, venue.id),
 		db
 			.select({ id: props.controllerId, n: sql<number>`count(*)::int` })
 			.from(props)
 			.where(and(eq(props.venueId, venue.id), isNotNull(props.controllerId)))
-			.groupBy(props.controllerId)
+			.groupBy(props.controllerId),
+		// Keys are shown only to those who may make and revoke them (never the tokens).
+		canEdit ? venueKeys(db, venue.id) : Promise.resolve([])
 	]);
 	const propCount = new Map(uses.map((u) => [u.id, u.n]));
 	return {
@@ -31,13 +36,48 @@ export const load: PageServerLoad = async (event) => {
 				prescaler: c.prescaler,
 				bits: c.pwmBits
 			});
-			return { ...c, pwmHz: f.ok ? f.value : null, propCount: propCount.get(c.id) ?? 0 };
+			return {
+				...c,
+				pwmHz: f.ok ? f.value : null,
+				propCount: propCount.get(c.id) ?? 0,
+				keys: keys.filter((k) => k.controllerId === c.id)
+			};
 		}),
-		canEdit: EDITORS.includes(venue.role)
+		timeZone: venue.timeZone,
+		canEdit
 	};
 };
 
 export const actions: Actions = {
+	issueKey: async (event) => {
+		const venue = requireRole(event, ...EDITORS);
+		const parsed = await parseForm(event.request, idSchema);
+		if (!parsed.ok) return fail(400, { message: 'That controller does not exist.' });
+		const made = await issueKey(db, venue.id, parsed.data.id, event.locals.person!.id);
+		if (!made) return fail(404, { message: 'That controller no longer exists.' });
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'board_key.issued',
+			detail: { controller: made.controller.name, hint: made.hint }
+		});
+		// The only time the token leaves the server.
+		return { newKey: { controllerId: parsed.data.id, token: made.token } };
+	},
+	revokeKey: async (event) => {
+		const venue = requireRole(event, ...EDITORS);
+		const parsed = await parseForm(event.request, keyIdSchema);
+		if (!parsed.ok) return fail(400, { message: 'That key does not exist.' });
+		const done = await revokeKey(db, venue.id, parsed.data.key);
+		if (!done) return fail(404, { message: 'That key no longer exists or is already revoked.' });
+		await audit(db, {
+			venueId: venue.id,
+			personId: event.locals.person!.id,
+			action: 'board_key.revoked',
+			detail: { key: done.id }
+		});
+		return { revoked: true };
+	},
 	add: async (event) => {
 		const venue = requireRole(event, ...EDITORS);
 		const parsed = await parseForm(event.request, controllerSchema);
