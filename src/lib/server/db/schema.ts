@@ -6,3 +6,4 @@ export * from './props.schema';
 export * from './scenes.schema';
 export * from './runsheets.schema';
 export * from './checklists.schema';
+export * from './faults.schema';
