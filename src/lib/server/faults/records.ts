@@ -1,7 +1,7 @@
 // Faults on props and what happens to them: reported by anyone on the night, repaired by a
 // designer, re-tested, closed only after a passing re-test. Every step is a new row (faults and
 // fault_events are append-only), written in one transaction under the fault's row lock.
-import { and, asc, desc, eq, gt, inArray, isNotNull, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { Db } from '$lib/server/db/client';
 import {
@@ -230,7 +230,7 @@ export async function closeFault(
 						eq(checks.venueId, venueId),
 						eq(checks.propId, propId),
 						eq(checkResults.outcome, 'pass'),
-						gt(resultAt, repair.at)
+						sql`${resultAt} > ${repair.at.toISOString()}::timestamptz`
 					)
 				)
 				.orderBy(asc(resultAt))
