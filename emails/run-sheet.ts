@@ -28,6 +28,8 @@ export interface RunSheetData {
 	scenes: RunSheetScene[];
 	/** Their lines of the night's checklist: their rooms' checks, and every safety check for a safety post. */
 	checklist?: { room: string | null; item: string }[];
+	/** Open faults on props in their rooms (every room for a safety post). */
+	faults?: { room: string | null; prop: string; severity: string; seen: string }[];
 	/** A safety post: it covers every room. */
 	safetyPost?: boolean;
 	/** For a safety post: every room's hazards, scene by scene. */
@@ -111,6 +113,15 @@ ${warnings}${s.cues.length ? list(s.cues) : `<p style="margin:0;color:${COLOURS.
 		.join('');
 
 	const checklist = d.checklist?.map((c) => (c.room ? `${c.room}: ${c.item}` : c.item));
+	const faultLines = (d.faults ?? []).map(
+		(f) => `${f.room ? `${f.room}, ` : ''}${f.prop} (${f.severity}): ${f.seen}`
+	);
+	const faultHtml = faultLines.length
+		? `${heading('Open faults in your rooms')}\n${list(faultLines)}`
+		: '';
+	const faultText = faultLines.length
+		? `\n${textHeading('Open faults in your rooms')}\n${faultLines.map((l) => `! ${l}`).join('\n')}\n`
+		: '';
 	const contacts = d.safetyContacts.map(contactLine);
 	const hazards = d.hazards ?? [];
 	const hazardLines = hazards.flatMap((h) =>
@@ -144,6 +155,7 @@ ${hazardHtml}
 ${heading('Scenes in your rooms')}
 ${sceneHtml || `<p style="margin:0;color:${COLOURS.muted};">No scenes run in your rooms tonight.</p>`}
 ${checklistHtml}
+${faultHtml}
 ${heading('Safety contacts')}
 ${contacts.length ? `<ul style="margin:0 0 8px;padding-left:22px;">${d.safetyContacts.map(contactHtml).join('')}</ul>` : `<p style="margin:0;color:${COLOURS.muted};">Ask the show manager.</p>`}
 ${heading('Show stop')}
@@ -175,7 +187,7 @@ ${when.map(([k, v]) => `${k}: ${v}`).join('\n')}
 ${d.url ? `\nOpen the run sheet: ${d.url}\n` : ''}${hazardText}
 ${textHeading('Scenes in your rooms')}
 ${sceneText || 'No scenes run in your rooms tonight.'}
-${checklistText}
+${checklistText}${faultText}
 ${textHeading('Safety contacts')}
 ${contacts.length ? contacts.join('\n') : 'Ask the show manager.'}
 

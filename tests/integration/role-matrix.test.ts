@@ -159,6 +159,10 @@ const MATRIX: Record<string, Entry> = {
 			remove: 'editors'
 		}
 	},
+	'/(app)/v/[venue]/props/[prop=uuid]/faults': {
+		load: 'member',
+		actions: { report: 'member', repair: 'editors', retest: 'member', close: 'notCrew' }
+	},
 	'/(app)/v/[venue]/props/[prop=uuid]/files/[file=uuid]': { GET: 'member' },
 	'/(app)/v/[venue]/props/[prop=uuid]/outputs/[output=uuid]': {
 		load: 'member',

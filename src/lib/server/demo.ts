@@ -17,6 +17,7 @@ import { seedDemoProps } from './demo-props';
 import { seedLanternWalk } from './demo-lantern-walk';
 import { seedDemoCalibration } from './demo-calibration';
 import { seedDemoScenes } from './demo-scenes';
+import { seedDemoFaults } from './demo-faults';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
 export const DEMO_PASSWORD = 'lantern-demo-2026';
@@ -102,6 +103,7 @@ export async function seedDemo(db: Db) {
 		await seedDemoScenes(db, venue.id, v.slug, ids.designer);
 	}
 	await seedSchedule(db, ids);
+	await seedDemoFaults(db, DEMO_SEASON.venueSlug, ids);
 	return ids;
 }
 

@@ -7,3 +7,4 @@ export * from './scenes.schema';
 export * from './runsheets.schema';
 export * from './checklists.schema';
 export * from './boards.schema';
+export * from './faults.schema';

@@ -1,4 +1,6 @@
 import { createHash } from 'node:crypto';
+import { listFaults } from '$lib/server/faults/records';
+import { SEVERITY_WORDS } from '$lib/faults/downtime';
 import { and, asc, eq } from 'drizzle-orm';
 import type { RunSheetData, RunSheetScene, RunSheetWarning } from '$emails/run-sheet';
 import { hazardsOf } from '$lib/props/output-maths';
@@ -163,7 +165,7 @@ export async function buildShowRunSheets(
 	const { show, venue } = row;
 	const tz = venue.timeZone;
 
-	const [crew, managers, scenes, specs, roomRows] = await Promise.all([
+	const [crew, managers, scenes, specs, roomRows, openFaults] = await Promise.all([
 		db
 			.select({
 				personId: assignments.personId,
@@ -201,7 +203,8 @@ export async function buildShowRunSheets(
 		db
 			.select({ id: rooms.id, name: rooms.name, position: rooms.position })
 			.from(rooms)
-			.where(eq(rooms.venueId, venueId))
+			.where(eq(rooms.venueId, venueId)),
+		listFaults(db, venueId, { openOnly: true })
 	]);
 	const roomOrder = new Map(roomRows.map((r) => [r.id, r.position]));
 	const roomName = new Map(roomRows.map((r) => [r.id, r.name]));
@@ -266,6 +269,14 @@ export async function buildShowRunSheets(
 		const checklist = workable
 			.filter((c) => (c.roomId && roomIds.has(c.roomId)) || (safety && c.kind === 'safety'))
 			.map((c) => ({ room: c.roomId ? (roomName.get(c.roomId) ?? null) : null, item: c.label }));
+		const faults = openFaults
+			.filter((f) => safety || (f.roomId && roomIds.has(f.roomId)))
+			.map((f) => ({
+				room: f.roomName,
+				prop: f.propName,
+				severity: SEVERITY_WORDS[f.severity].toLowerCase(),
+				seen: f.seen
+			}));
 		const name = mine[0].name ?? mine[0].email;
 		const data: RunSheetData = {
 			venueName: venue.name,
@@ -280,6 +291,7 @@ export async function buildShowRunSheets(
 			...(safety ? { safetyPost: true, hazards } : {}),
 			scenes: theirScenes.map(({ name, room, cues, warnings }) => ({ name, room, cues, warnings })),
 			checklist,
+			...(faults.length ? { faults } : {}),
 			safetyContacts: contacts,
 			showStop: SHOW_STOP,
 			url: runSheetUrl(origin, venue.slug, show.id, personId)

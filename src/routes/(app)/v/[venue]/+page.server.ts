@@ -12,12 +12,13 @@ import {
 import { localTime } from '$lib/util/when';
 import { currentChecklist } from '$lib/server/checklists/copies';
 import { runSheetDelivery } from '$lib/server/runsheets/send';
+import { listFaults } from '$lib/server/faults/records';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const planner = venue.role === 'owner' || venue.role === 'show_manager';
-	const [[details], roomList, [members], show] = await Promise.all([
+	const [[details], roomList, [members], show, openFaults] = await Promise.all([
 		db.select().from(venues).where(eq(venues.id, venue.id)),
 		db
 			.select({ id: rooms.id, name: rooms.name })
@@ -25,7 +26,8 @@ export const load: PageServerLoad = async (event) => {
 			.where(eq(rooms.venueId, venue.id))
 			.orderBy(asc(rooms.position), asc(rooms.name)),
 		db.select({ n: count() }).from(memberships).where(eq(memberships.venueId, venue.id)),
-		nextShow(db, venue.id)
+		nextShow(db, venue.id),
+		listFaults(db, venue.id, { openOnly: true })
 	]);
 	let next = null;
 	if (show) {
@@ -93,6 +95,16 @@ export const load: PageServerLoad = async (event) => {
 		safetyTel: telHref(details.safetyContactPhone),
 		rooms: roomList,
 		memberCount: members.n,
-		next
+		next,
+		openFaults: openFaults.map((f) => ({
+			id: f.id,
+			propId: f.propId,
+			propName: f.propName,
+			roomName: f.roomName,
+			severity: f.severity,
+			seen: f.seen,
+			state: f.state,
+			downtimeMinutes: f.downtimeMinutes
+		}))
 	};
 };

@@ -15,6 +15,7 @@ import { getProp, ownsRefs, venueControllers, venueRooms } from '$lib/server/pro
 import { outputValues, propChildren, sensorValues, touchProp } from '$lib/server/props/records';
 import { hazardsOf } from '$lib/props/output-maths';
 import { scenesUsingOutputs } from '$lib/server/scenes/records';
+import { listFaults } from '$lib/server/faults/records';
 import { propSchema } from '$lib/schemas/prop';
 import { sensorSchema } from '$lib/schemas/sensor';
 import { outputSchema } from '$lib/schemas/output';
@@ -24,10 +25,11 @@ export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const prop = await getProp(db, venue.id, event.params.prop);
 	if (!prop) error(404, 'There is no such prop in this venue.');
-	const [children, rooms, controllers] = await Promise.all([
+	const [children, rooms, controllers, openFaults] = await Promise.all([
 		propChildren(db, venue.id, prop.id),
 		venueRooms(db, venue.id),
-		venueControllers(db, venue.id)
+		venueControllers(db, venue.id),
+		listFaults(db, venue.id, { propId: prop.id, openOnly: true })
 	]);
 	const controller = controllers.find((c) => c.id === prop.controllerId) ?? null;
 	const hazards = [...new Set(children.outputs.flatMap((o) => hazardsOf(o)))];
@@ -47,7 +49,8 @@ export const load: PageServerLoad = async (event) => {
 		controllers: controllers.map((c) => ({ id: c.id, name: c.name })),
 		controller,
 		roomName: rooms.find((r) => r.id === prop.roomId)?.name ?? null,
-		canEdit: EDITORS.includes(venue.role)
+		canEdit: EDITORS.includes(venue.role),
+		openFaults: openFaults.map(({ events: _events, ...f }) => f)
 	};
 };
 
