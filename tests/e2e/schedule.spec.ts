@@ -110,7 +110,7 @@ test.describe('from a device in another time zone', () => {
 
 		await page.goto(`${TRAIL}/calendar?date=2028-03-01`);
 		const calendar = page.getByTestId('calendar');
-		const show = calendar.getByRole('button', { name: '19:00 Show' });
+		const show = calendar.getByRole('button', { name: '19:00 One-off show' });
 		const dayNumber = (date: string) => calendar.locator(`time[datetime="${date}"]`);
 		const doorsOf = async () => {
 			const res = await page.request.get(
