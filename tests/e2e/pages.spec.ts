@@ -101,8 +101,14 @@ const pages: {
 			await page.goto(`${TRAIL}/seasons`);
 			await page.getByRole('link', { name: 'Hollow Pines Autumn 2027' }).click();
 			await page.getByRole('link', { name: 'Fri 1 Oct 2027' }).first().click();
-			const prop = await page.getByLabel('Prop', { exact: true }).inputValue();
-			return `${new URL(page.url()).pathname}/stand-down?prop=${prop}`;
+			// No prop fails on the demo night, so the show page links to the stand-down picker.
+			await page.getByRole('link', { name: 'Choose a prop to stand down…' }).click();
+			const prop = await page
+				.getByLabel('Prop', { exact: true })
+				.locator('option:not([value=""])')
+				.first()
+				.getAttribute('value');
+			return `${new URL(page.url()).pathname}?prop=${prop}`;
 		},
 		name: 'stand-down'
 	},

@@ -1,9 +1,10 @@
 import { afterAll, beforeAll, describe, expect, inject, it, vi } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import {
 	assignments,
 	memberships,
+	outputs,
 	positions,
 	props,
 	sceneCues,
@@ -25,7 +26,7 @@ import { queueRunSheets } from '../../src/lib/server/runsheets/send';
 import { scenesForShow } from '../../src/lib/server/scenes/for-show';
 import { makePerson, testDb } from './db';
 import { makeNight } from './night';
-import { asSession, callAction, useTestEnv } from './routes';
+import { answerOf, asSession, callAction, eventFor, useTestEnv } from './routes';
 
 vi.mock('$env/dynamic/private', () => ({ env: process.env }));
 useTestEnv();
@@ -151,6 +152,88 @@ describe('standing a prop down', () => {
 			status: 400,
 			body: { errors: { propId: ['Well is already stood down for this night.'] } }
 		});
+	});
+
+	it('offers the failing props first and finds any other by name on a large night', async () => {
+		const n = await night();
+		const [hiss] = await db
+			.select()
+			.from(scenes)
+			.where(and(eq(scenes.venueId, n.venue.id), eq(scenes.name, 'Hiss')));
+		// Forty more props, each with a light cued in the Barn's scene: more than a short list holds.
+		for (let i = 1; i <= 40; i++) {
+			const [prop] = await db
+				.insert(props)
+				.values({ venueId: n.venue.id, name: `Lantern ${String(i).padStart(2, '0')}` })
+				.returning();
+			const [light] = await db
+				.insert(outputs)
+				.values({
+					venueId: n.venue.id,
+					propId: prop.id,
+					kind: 'relay',
+					relayKind: 'pneumatic',
+					name: 'Lamp',
+					settings: n.valve.settings,
+					safeState: 'de_energised'
+				})
+				.returning();
+			await db.insert(sceneCues).values({
+				venueId: n.venue.id,
+				sceneId: hiss.id,
+				outputId: light.id,
+				startMs: 0,
+				action: { type: 'pulse', durationMs: 200 }
+			});
+		}
+		await syncChecklist(db, n.venue.id, n.show.id);
+		const glowCheck = (await loadChecklist(db, n.venueCtx, n.show.id)).checks.find(
+			(c) => c.propId === n.well.id && c.kind === 'output_test'
+		)!;
+		const failed = await recordResult(db, {
+			venue: n.venueCtx,
+			personId: n.manager.id,
+			showId: n.show.id,
+			body: { clientId: randomUUID(), checkId: glowCheck.id, outcome: 'fail', note: 'Dead' }
+		});
+		expect(failed.ok).toBe(true);
+		const load = async (query: string) => {
+			const event = await eventFor({
+				path: `/v/${n.venue.slug}/shows/${n.show.id}/stand-down${query}`,
+				params: { venue: n.venue.slug, show: n.show.id },
+				person: asSession(n.manager)
+			});
+			return (await answerOf(() => page.load(event as never))).body as {
+				choices: { name: string }[];
+				total: number;
+				search: { q: string; matched: number } | null;
+				chosen: string | null;
+			};
+		};
+		const plain = await load('');
+		expect(plain.total).toBe(42);
+		// Unsearched, only the failing Well is listed, and chosen.
+		expect(plain.choices.map((c) => c.name)).toEqual(['Well']);
+		expect(plain.chosen).toBe(n.well.id);
+		expect(plain.search).toEqual({ q: '', matched: 0, listed: 50 });
+		const found = await load('?q=lantern%203');
+		expect(found.choices.map((c) => c.name)).toEqual([
+			'Lantern 30',
+			'Lantern 31',
+			'Lantern 32',
+			'Lantern 33',
+			'Lantern 34',
+			'Lantern 35',
+			'Lantern 36',
+			'Lantern 37',
+			'Lantern 38',
+			'Lantern 39',
+			'Well'
+		]);
+		expect(found.search?.matched).toBe(10);
+		const none = await load('?q=gargoyle');
+		expect(none.search?.matched).toBe(0);
+		expect(none.choices.map((c) => c.name)).toEqual(['Well']);
 	});
 
 	it('can be restored before sign-off, keeping both reasons, and not after', async () => {

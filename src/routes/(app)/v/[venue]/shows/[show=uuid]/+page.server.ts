@@ -139,9 +139,10 @@ export const load: PageServerLoad = async (event) => {
 		})),
 		leftOut: left.map((s) => ({ ...s, room: roomName(s.roomId) })),
 		changedAfterSignOff: lateChanges.map((c) => ({ ...c, at: c.at.toISOString() })),
-		standDownChoices: nightProps
-			.filter((p) => !down.has(p.id))
-			.map((p) => ({ ...p, failing: failing.has(p.id) })),
+		// Only the failing props are offered here (a night can hold thousands of props); the
+		// stand-down page finds any other by name.
+		standDownChoices: nightProps.filter((p) => !down.has(p.id) && failing.has(p.id)),
+		standDownOthers: nightProps.filter((p) => !down.has(p.id) && !failing.has(p.id)).length,
 		show: {
 			id: show.id,
 			date: show.date,

@@ -13,6 +13,9 @@ import { standDownSchema } from '$lib/schemas/checklist';
 import { keep, parseForm } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
+const SEARCH_FROM = 30;
+const LISTED_MATCHES = 50;
+
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event, ...PLANNERS);
 	const show = await getShow(db, venue.id, event.params.show);
@@ -41,6 +44,22 @@ export const load: PageServerLoad = async (event) => {
 	const asked = event.url.searchParams.get('prop');
 	const chosen =
 		choices.find((p) => p.id === asked) ?? choices.find((p) => p.failed.length) ?? null;
+	// A large venue has thousands of props on a night: past a short list the picker searches by name,
+	// and always keeps the failing props and the chosen one in view.
+	const q = (event.url.searchParams.get('q') ?? '').trim().slice(0, 100);
+	const searchable = choices.length > SEARCH_FROM;
+	const needle = q.toLocaleLowerCase();
+	const matching = searchable
+		? choices.filter((p) => needle !== '' && p.name.toLocaleLowerCase().includes(needle))
+		: choices;
+	const listed = searchable
+		? choices.filter(
+				(p) =>
+					p.failed.length ||
+					p.id === chosen?.id ||
+					matching.slice(0, LISTED_MATCHES).some((m) => m.id === p.id)
+			)
+		: choices;
 	const preview =
 		chosen && !checklist.signOff
 			? await standDownPreview(db, venue, show.id, chosen.id, config.origin)
@@ -48,7 +67,9 @@ export const load: PageServerLoad = async (event) => {
 	return {
 		show: { id: show.id, date: show.date },
 		signed: checklist.signOff !== null,
-		choices,
+		choices: listed,
+		total: choices.length,
+		search: searchable ? { q, matched: matching.length, listed: LISTED_MATCHES } : null,
 		chosen: chosen?.id ?? null,
 		alreadyDown: checklist.standDowns.find((d) => d.propId === asked)?.propName ?? null,
 		preview
