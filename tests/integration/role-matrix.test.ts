@@ -231,6 +231,7 @@ const MATRIX: Record<string, Entry> = {
 	'/api/v/[venue]/props/[prop=uuid]/files': { GET: 'member', POST: 'editors' },
 	'/api/v/[venue]/props/[prop=uuid]/outputs': { POST: 'editors' },
 	'/api/v/[venue]/props/[prop=uuid]/sensors': { POST: 'editors' },
+	'/api/v/[venue]/props/[prop=uuid]/sensors/[sensor=uuid]/live': { GET: 'notCrew' },
 	'/api/v/[venue]/props/[prop=uuid]/sensors/[sensor=uuid]/captures': {
 		GET: 'member',
 		POST: 'editors'

@@ -71,7 +71,10 @@ export const load: PageServerLoad = async (event) => {
 					summary: shown.summary as unknown as StoredCaptureSummary
 				}
 			: null,
-		canEdit: EDITORS.includes(venue.role)
+		canEdit: EDITORS.includes(venue.role),
+		// The live readings' endpoint serves designers, owners and show managers.
+		canSeeLive: venue.role !== 'crew',
+		timeZone: venue.timeZone
 	};
 };
 
