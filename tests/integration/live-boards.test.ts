@@ -22,6 +22,8 @@ const db = testDb();
 const live =
 	await import('../../src/routes/api/v/[venue]/props/[prop=uuid]/sensors/[sensor=uuid]/live/+server');
 const tonight = await import('../../src/routes/(app)/v/[venue]/+page.server');
+const header =
+	await import('../../src/routes/(app)/v/[venue]/controllers/[controller=uuid]/firmware.h/+server');
 
 const controllerValues = {
 	supplyV: 5,
@@ -157,6 +159,24 @@ describe('the live readings endpoint', () => {
 		const bad = await askLive(people.designer, undefined, 'soon');
 		expect(bad.status).toBe(400);
 		expect(String(bad.body!.message)).toContain('milliseconds');
+	});
+});
+
+describe('the firmware header download', () => {
+	it('carries the controller’s own sensors and thresholds, and no key', async () => {
+		await issueKey(db, venue.id, here.controller.id, people.designer.id);
+		const r = await callHandler(header.GET as never, {
+			path: `/v/${venue.slug}/controllers/${here.controller.id}/firmware.h`,
+			params: { venue: venue.slug, controller: here.controller.id },
+			person: asSession(people.designer),
+			routeId: '/(app)/v/[venue]/controllers/[controller=uuid]/firmware.h'
+		});
+		expect(r.status).toBe(200);
+		const text = String(r.body!.text);
+		expect(text).toContain('#define GLOAMING_LIP_PLATE_ENTER 1495.0');
+		expect(text).toContain('#define GLOAMING_GATE_BEAM_NAME "gate-beam"');
+		expect(text).toContain(`"gloaming/${here.controller.id}/readings"`);
+		expect(text).not.toMatch(/glb_/);
 	});
 });
 
