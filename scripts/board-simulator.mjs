@@ -67,7 +67,7 @@ const sql = postgres(databaseUrl, { max: 2, onnotice: () => {} });
 /** The boards to play, each with a key in force. @returns {Promise<Board[]>} */
 async function boards() {
 	const rows = await sql`
-		select c.id as controller_id, c.name as controller_name, c.venue_id,
+		select c.id as controller_id, c.name as controller_name, c.venue_id, v.name as venue_name,
 			s.id, s.name, s.kind, s.settings, s.near, s.far, s.calibration
 		from controllers c
 		join venues v on v.id = c.venue_id
@@ -80,7 +80,7 @@ async function boards() {
 	for (const r of rows) {
 		const b = byId.get(r.controller_id) ?? {
 			id: r.controller_id,
-			name: r.controller_name,
+			name: `${r.controller_name} (${r.venue_name})`,
 			venueId: r.venue_id,
 			token: '',
 			sensors: []
