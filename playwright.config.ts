@@ -22,7 +22,9 @@ const appEnv = {
 	S3_BUCKET: 'gloaming',
 	S3_ACCESS_KEY_ID: 'S3RVER',
 	S3_SECRET_ACCESS_KEY: 'S3RVER',
-	BODY_SIZE_LIMIT: '52M'
+	BODY_SIZE_LIMIT: '52M',
+	// The broker scripts/test.mjs starts, so live readings take the real path in the browser tests.
+	MQTT_URL: `mqtt://127.0.0.1:${t.mqttPort}`
 };
 
 export default defineConfig({

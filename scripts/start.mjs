@@ -41,6 +41,8 @@ const env = {
 	BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '52M'
 };
 
+const simulating = process.env.GLOAMING_SIMULATOR !== '0';
+
 let stopping = false;
 function shutdown() {
 	if (stopping) return;
@@ -70,6 +72,11 @@ try {
 	console.log('[setup] building the app…');
 	runNode(['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn'], env);
 	await startChild('app', ['build/index.js'], env, { waitFor: /Listening/ });
+	// The demo venues' boards, so a newcomer sees live readings at once.
+	if (simulating)
+		await startChild('board simulator', ['scripts/board-simulator.mjs'], env, {
+			waitFor: /\[simulator\]/
+		});
 } catch (e) {
 	console.error(`[setup] ${e instanceof Error ? e.message : e}`);
 	shutdown();
@@ -85,6 +92,7 @@ if (!stopping) {
     PostgreSQL      ${usingLocalDb ? `127.0.0.1:${ports.pgPort}, data in ${ports.pgDir}/` : 'from DATABASE_URL'}
     Object store    ${env.S3_ENDPOINT} (bucket ${env.S3_BUCKET})
     MQTT broker     ${mqttUrl} (boards publish to gloaming/<controller id>/readings)
+    Boards          ${simulating ? 'the demo boards are simulated (GLOAMING_SIMULATOR=0 turns that off)' : 'not simulated (GLOAMING_SIMULATOR=0)'}
 
   Demo sign-in (password for all: lantern-demo-2026)
     owner@gloaming.test      Owner of both venues

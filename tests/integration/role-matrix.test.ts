@@ -9,6 +9,7 @@ import {
 	assignments,
 	checkResults,
 	checks,
+	controllers,
 	outputs,
 	positions,
 	propFiles,
@@ -133,6 +134,7 @@ const MATRIX: Record<string, Entry> = {
 			revokeKey: 'editors'
 		}
 	},
+	'/(app)/v/[venue]/controllers/[controller=uuid]/firmware.h': { GET: 'editors' },
 	'/(app)/v/[venue]/rooms': {
 		load: 'member',
 		actions: { add: 'editors', rename: 'editors', remove: 'editors' }
@@ -229,6 +231,7 @@ const MATRIX: Record<string, Entry> = {
 	'/api/v/[venue]/props/[prop=uuid]/files': { GET: 'member', POST: 'editors' },
 	'/api/v/[venue]/props/[prop=uuid]/outputs': { POST: 'editors' },
 	'/api/v/[venue]/props/[prop=uuid]/sensors': { POST: 'editors' },
+	'/api/v/[venue]/props/[prop=uuid]/sensors/[sensor=uuid]/live': { GET: 'notCrew' },
 	'/api/v/[venue]/props/[prop=uuid]/sensors/[sensor=uuid]/captures': {
 		GET: 'member',
 		POST: 'editors'
@@ -333,9 +336,23 @@ async function stock(): Promise<Stock> {
 	await makeVenue(db, [[outsider.id, 'owner']]);
 	const v = venue.id;
 	const [room] = await db.insert(rooms).values({ venueId: v, name: 'Crypt' }).returning();
+	const [controller] = await db
+		.insert(controllers)
+		.values({
+			venueId: v,
+			name: 'Crypt board',
+			supplyV: 5,
+			clockHz: 16e6,
+			timerBits: 16,
+			pwmBits: 8,
+			referenceV: 1.1,
+			pinLimitMa: 20,
+			supplyRatingA: 2
+		})
+		.returning();
 	const [prop] = await db
 		.insert(props)
-		.values({ venueId: v, name: 'Lid', roomId: room.id })
+		.values({ venueId: v, name: 'Lid', roomId: room.id, controllerId: controller.id })
 		.returning();
 	const [sensor] = await db
 		.insert(sensors)
@@ -438,6 +455,7 @@ async function stock(): Promise<Stock> {
 		ids: {
 			room: room.id,
 			prop: prop.id,
+			controller: controller.id,
 			sensor: sensor.id,
 			output: output.id,
 			scene: scene.id,

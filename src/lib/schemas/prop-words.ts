@@ -71,3 +71,17 @@ export const SAFE_STATE_LABELS: Record<SafeState, string> = {
 	off: 'Off',
 	de_energised: 'De-energised'
 };
+
+/**
+ * What a board's reading of each kind is: a count, a distance, or on/off. The simulator and the
+ * firmware header follow the same: plates send timer counts, ranging sensors millimetres, the
+ * rest 1 for someone there (beam broken, movement, mat stepped on, pressed) and 0 for nobody.
+ */
+export const READING_UNITS: Record<SensorKind, { unit: string; onOff: boolean }> = {
+	capacitive: { unit: 'counts', onOff: false },
+	ranging: { unit: 'mm', onOff: false },
+	motion: { unit: '', onOff: true },
+	break_beam: { unit: '', onOff: true },
+	pressure_mat: { unit: '', onOff: true },
+	button: { unit: '', onOff: true }
+};

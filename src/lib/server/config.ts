@@ -62,6 +62,19 @@ export const config = {
 	get mqttUrl() {
 		return env.MQTT_URL || null;
 	},
+	/**
+	 * The broker address written into boards' firmware headers: BOARD_MQTT_URL when the boards
+	 * reach the broker by another name than the app does, else MQTT_URL.
+	 */
+	get boardBroker(): { host: string; port: number } {
+		const raw = env.BOARD_MQTT_URL || env.MQTT_URL || 'mqtt://127.0.0.1:1883';
+		try {
+			const u = new URL(raw);
+			return { host: u.hostname, port: Number(u.port) || (u.protocol === 'mqtts:' ? 8883 : 1883) };
+		} catch {
+			return { host: '127.0.0.1', port: 1883 };
+		}
+	},
 	get production() {
 		return env.NODE_ENV === 'production' && !env.ORIGIN?.startsWith('http://127.0.0.1');
 	}

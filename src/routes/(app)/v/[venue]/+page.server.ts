@@ -13,12 +13,14 @@ import { localTime } from '$lib/util/when';
 import { currentChecklist } from '$lib/server/checklists/copies';
 import { runSheetDelivery } from '$lib/server/runsheets/send';
 import { listFaults } from '$lib/server/faults/records';
+import { UNHEARD_MINUTES, quietBoards } from '$lib/server/boards/live';
+import { localDateTime } from '$lib/util/when';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const planner = venue.role === 'owner' || venue.role === 'show_manager';
-	const [[details], roomList, [members], show, openFaults] = await Promise.all([
+	const [[details], roomList, [members], show, openFaults, quiet] = await Promise.all([
 		db.select().from(venues).where(eq(venues.id, venue.id)),
 		db
 			.select({ id: rooms.id, name: rooms.name })
@@ -27,7 +29,8 @@ export const load: PageServerLoad = async (event) => {
 			.orderBy(asc(rooms.position), asc(rooms.name)),
 		db.select({ n: count() }).from(memberships).where(eq(memberships.venueId, venue.id)),
 		nextShow(db, venue.id),
-		listFaults(db, venue.id, { openOnly: true })
+		listFaults(db, venue.id, { openOnly: true }),
+		quietBoards(db, venue.id)
 	]);
 	let next = null;
 	if (show) {
@@ -96,6 +99,14 @@ export const load: PageServerLoad = async (event) => {
 		rooms: roomList,
 		memberCount: members.n,
 		next,
+		quietBoards: {
+			minutes: UNHEARD_MINUTES,
+			boards: quiet.map((b) => ({
+				id: b.controllerId,
+				name: b.name,
+				lastHeard: b.lastAt ? localDateTime(b.lastAt, venue.timeZone) : null
+			}))
+		},
 		openFaults: openFaults.map((f) => ({
 			id: f.id,
 			propId: f.propId,

@@ -1,10 +1,10 @@
 import { error, fail } from '@sveltejs/kit';
-import { and, desc, eq } from 'drizzle-orm';
+import { and, desc, eq, isNull } from 'drizzle-orm';
 import { z } from 'zod';
 import { EDITORS, requireRole } from '$lib/server/auth/guard';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db';
-import { captures, sensors, type SensorCalibration } from '$lib/server/db/schema';
+import { boardKeys, captures, sensors, type SensorCalibration } from '$lib/server/db/schema';
 import { parseForm } from '$lib/server/forms';
 import { parseNestedForm } from '$lib/server/props/form';
 import { getController, getProp, isUuid } from '$lib/server/props/queries';
@@ -37,13 +37,26 @@ async function find(event: RequestEvent | Parameters<PageServerLoad>[0], venueId
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const { prop, sensor } = await find(event, venue.id);
-	const [controller, list] = await Promise.all([
+	const [controller, list, keys] = await Promise.all([
 		getController(db, venue.id, prop.controllerId),
 		db
 			.select()
 			.from(captures)
 			.where(and(eq(captures.venueId, venue.id), eq(captures.sensorId, sensor.id)))
-			.orderBy(desc(captures.uploadedAt))
+			.orderBy(desc(captures.uploadedAt)),
+		prop.controllerId
+			? db
+					.select({ id: boardKeys.id })
+					.from(boardKeys)
+					.where(
+						and(
+							eq(boardKeys.venueId, venue.id),
+							eq(boardKeys.controllerId, prop.controllerId),
+							isNull(boardKeys.revokedAt)
+						)
+					)
+					.limit(1)
+			: []
 	]);
 	const wanted = event.url.searchParams.get('capture');
 	const shown = list.find((c) => c.id === wanted) ?? list[0] ?? null;
@@ -71,7 +84,11 @@ export const load: PageServerLoad = async (event) => {
 					summary: shown.summary as unknown as StoredCaptureSummary
 				}
 			: null,
-		canEdit: EDITORS.includes(venue.role)
+		canEdit: EDITORS.includes(venue.role),
+		// The live readings' endpoint serves designers, owners and show managers.
+		canSeeLive: venue.role !== 'crew',
+		boardHasKey: keys.length > 0,
+		timeZone: venue.timeZone
 	};
 };
 
