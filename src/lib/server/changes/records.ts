@@ -6,9 +6,10 @@ import type { Db } from '$lib/server/db/client';
 import { changeRecords, checks, props, shows, signOffs, users } from '$lib/server/db/schema';
 import type { ChangePart } from '$lib/schemas/change-words';
 import { summarise, type Difference } from '$lib/props/changes';
+import { nightPropIds } from '$lib/server/scenes/for-show';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
-type Reader = Pick<Db, 'select'>;
+type Reader = Pick<Db, 'select' | 'selectDistinct'>;
 
 /** The latest signed-off night on which the prop had checks, or null when it has had none. */
 export async function lastSignedNight(db: Reader, venueId: string, propId: string) {
@@ -98,15 +99,13 @@ export async function recordChange(tx: Tx, c: ChangeInput) {
 
 /**
  * The change records that still ask for a re-test on a night: made before the night's doors open,
- * to one of the given props, and not followed by another signed-off night with that prop.
+ * to one of the night's props, and not followed by another signed-off night with that prop.
  */
 export async function openChanges(
 	db: Reader,
 	venueId: string,
-	show: { id: string; doorsOpen: Date },
-	propIds: string[]
+	show: { id: string; doorsOpen: Date }
 ) {
-	if (propIds.length === 0) return [];
 	return db
 		.select({
 			id: changeRecords.id,
@@ -125,7 +124,7 @@ export async function openChanges(
 		.where(
 			and(
 				eq(changeRecords.venueId, venueId),
-				inArray(changeRecords.propId, propIds),
+				inArray(changeRecords.propId, nightPropIds(db, venueId, show.id)),
 				lt(changeRecords.at, show.doorsOpen),
 				sql`not exists (
 					select 1 from ${signOffs}

@@ -75,14 +75,7 @@ export async function checklistSpecs(
 			.where(and(eq(shows.id, showId), eq(shows.venueId, venueId)))
 			.then((r) => r[0])
 	]);
-	const changes = show
-		? await openChanges(
-				db,
-				venueId,
-				show,
-				night.props.map((p) => p.id)
-			)
-		: [];
+	const changes = show ? await openChanges(db, venueId, show) : [];
 	const strobeSceneRooms: (string | null)[] = [];
 	for (const s of night.scenes) {
 		const findings = checkScene(s.scene, s.outputs, {

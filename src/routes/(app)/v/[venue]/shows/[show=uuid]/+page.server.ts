@@ -117,15 +117,7 @@ export const load: PageServerLoad = async (event) => {
 	const roomName = (id: string | null) => (id ? (roomNames.get(id) ?? null) : null);
 	const [lateChanges, propChanges] = checklist.signOff
 		? [await changesAfterSignOff(db, venue.id, show.id, new Date(checklist.signOff.at)), []]
-		: [
-				[],
-				await openChanges(
-					db,
-					venue.id,
-					show,
-					nightProps.map((p) => p.id)
-				)
-			];
+		: [[], await openChanges(db, venue.id, show)];
 	const down = new Set(checklist.standDowns.map((d) => d.propId));
 	const failing = new Set(
 		checklist.checks.filter((c) => c.latest?.outcome === 'fail' && c.propId).map((c) => c.propId)
