@@ -139,3 +139,44 @@ test('crew checking off pre-show sensor tests: readings on a phone, live progres
 	await crewContext.close();
 	await managerContext.close();
 });
+
+test('a change to a prop after its night was signed off asks why and puts a re-test on the next night', async ({
+	browser,
+	baseURL
+}) => {
+	// Follows the journey above, which signed off Fri 1 Oct 2027 with the well's prop on it.
+	const context = await browser.newContext({ baseURL });
+	const designer = await context.newPage();
+	await signIn(designer, people.designer);
+	await designer.goto(`${TRAIL}/props`);
+	await designer.getByRole('link', { name: 'Hand in the well', exact: true }).click();
+	await designer.getByRole('link', { name: 'Well-lip plate', exact: true }).click();
+	await designer.getByText('Change the sensor').click();
+	const gap = designer.getByLabel(/Gap to the hand/);
+	await gap.fill(String(Number(await gap.inputValue()) + 2));
+	await designer.getByRole('button', { name: 'Save sensor' }).click();
+	await expect(designer.getByText(/say why you are changing it/)).toBeVisible();
+	await designer.getByLabel('Why this change').fill('Plate re-glued after the rain.');
+	await designer.getByRole('button', { name: 'Save sensor' }).click();
+	await expect(designer.getByRole('status').filter({ hasText: 'Saved.' })).toBeVisible();
+
+	await designer.goto(`${TRAIL}/seasons`);
+	await designer.getByRole('link', { name: 'Hollow Pines Autumn 2027' }).click();
+	await designer.getByRole('link', { name: 'Sat 2 Oct 2027' }).first().click();
+	const changes = designer.getByRole('region', { name: 'Changed since the last signed-off night' });
+	await expect(changes).toContainText('Hand in the well, Well-lip plate: Gap to the hand');
+	await expect(changes).toContainText('Why: Plate re-glued after the rain.');
+	// The night's checklist, as the show manager who runs it sees it, carries the re-test.
+	const showPath = new URL(designer.url()).pathname;
+	const managerContext = await browser.newContext({ baseURL });
+	const manager = await managerContext.newPage();
+	await signIn(manager, people.manager);
+	await manager.goto(`${showPath}/checklist`);
+	const everyRoom = manager.getByRole('button', { name: /^All rooms/ });
+	if (await everyRoom.count()) await everyRoom.click();
+	await expect(
+		check(manager, 'Hand in the well: re-test after changes since its last signed-off night')
+	).toBeVisible();
+	await managerContext.close();
+	await context.close();
+});

@@ -1,7 +1,7 @@
 import { SAFE_STATE_LABELS, type SafeState } from '../schemas/prop-words';
 import type { ReadingBand } from './evaluate';
 
-export const CHECK_KINDS = ['sensor_test', 'output_test', 'safety'] as const;
+export const CHECK_KINDS = ['sensor_test', 'output_test', 'safety', 'retest'] as const;
 export type CheckKind = (typeof CHECK_KINDS)[number];
 
 /** How a check is worked: two readings against a band, or a plain pass or fail. */
@@ -47,6 +47,11 @@ export interface GenInput {
 	strobeSceneRooms: (string | null)[];
 	/** The venue's own items, in their order. */
 	venueItems: { id: string; label: string }[];
+	/**
+	 * Changes made to props after a signed-off night and not yet covered by another one, oldest
+	 * first; each prop with any gets one required re-test line.
+	 */
+	retests?: { propId: string; changeId: string; line: string }[];
 }
 
 export interface CheckSpec {
@@ -128,6 +133,7 @@ export function generateChecklist(input: GenInput): CheckSpec[] {
 	};
 	const sensorsOf = byProp(input.sensors);
 	const outputsOf = byProp(input.outputs);
+	const retestsOf = byProp(input.retests ?? []);
 	props.forEach((prop, p) => {
 		const at = (n: number) => `${pad(roomOrder(prop.roomId))}|${pad(p)}|${pad(n)}`;
 		let n = 0;
@@ -214,6 +220,21 @@ export function generateChecklist(input: GenInput): CheckSpec[] {
 			);
 		}
 		if (kinds.has('strobe')) strobeRooms.add(prop.roomId);
+		const changes = retestsOf.get(prop.id);
+		if (changes?.length) {
+			// Keyed by the newest change, so a further change asks for a fresh re-test.
+			specs.push({
+				...base,
+				key: `retest:${prop.id}:${changes[changes.length - 1].changeId}`,
+				kind: 'retest',
+				propId: prop.id,
+				roomId: prop.roomId,
+				label: `${prop.name}: re-test after changes since its last signed-off night`,
+				detail: `Work the prop through its scenes and watch each changed part. Changed: ${changes.map((c) => c.line).join(' ')}`,
+				expected: { mode: 'pass_fail' },
+				sortKey: at(n++)
+			});
+		}
 	});
 
 	for (const roomId of strobeRooms) {

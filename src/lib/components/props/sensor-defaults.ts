@@ -60,3 +60,12 @@ export const SENSOR_FIELDS: Record<
 		}
 	]
 };
+
+/** The trigger range every sensor has, beside its kind's own settings. */
+export const RANGE_FIELDS: { name: string; label: string; unit?: string }[] = [
+	{ name: 'near', label: 'Near end' },
+	{ name: 'far', label: 'Far end' },
+	{ name: 'hysteresis', label: 'Hysteresis' },
+	{ name: 'debounceMs', label: 'Debounce', unit: 'ms' },
+	{ name: 'rearmMs', label: 'Re-arm', unit: 'ms' }
+];

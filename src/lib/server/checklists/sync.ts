@@ -6,6 +6,7 @@ import { checks, rooms, shows, signOffs, venueSafetyItems, venues } from '$lib/s
 import { loadNight } from '$lib/server/scenes/night';
 import { luminanceThroughCurves } from '$lib/server/scenes/model';
 import { lockShow } from './record';
+import { openChanges } from '$lib/server/changes/records';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type Writer = Db | Tx;
@@ -61,14 +62,20 @@ export async function checklistSpecs(
 	venueId: string,
 	showId: string
 ): Promise<CheckSpec[]> {
-	const [items, night, roomRows] = await Promise.all([
+	const [items, night, roomRows, show] = await Promise.all([
 		venueItems(db, venueId),
 		loadNight(db, venueId, showId),
 		db
 			.select({ id: rooms.id, name: rooms.name, position: rooms.position })
 			.from(rooms)
-			.where(eq(rooms.venueId, venueId))
+			.where(eq(rooms.venueId, venueId)),
+		db
+			.select({ id: shows.id, doorsOpen: shows.doorsOpen })
+			.from(shows)
+			.where(and(eq(shows.id, showId), eq(shows.venueId, venueId)))
+			.then((r) => r[0])
 	]);
+	const changes = show ? await openChanges(db, venueId, show) : [];
 	const strobeSceneRooms: (string | null)[] = [];
 	for (const s of night.scenes) {
 		const findings = checkScene(s.scene, s.outputs, {
@@ -103,7 +110,12 @@ export async function checklistSpecs(
 			safeState: o.safeState
 		})),
 		strobeSceneRooms,
-		venueItems: items.map((i) => ({ id: i.id, label: i.label }))
+		venueItems: items.map((i) => ({ id: i.id, label: i.label })),
+		retests: changes.map((c) => ({
+			propId: c.propId,
+			changeId: c.id,
+			line: `${c.partName}: ${c.summary}, because “${c.reason.replace(/\s+/g, ' ')}”.`
+		}))
 	});
 }
 

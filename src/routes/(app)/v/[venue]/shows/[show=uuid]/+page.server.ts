@@ -20,6 +20,7 @@ import {
 	users
 } from '$lib/server/db/schema';
 import { notifyShow } from '$lib/server/checklists/live';
+import { openChanges } from '$lib/server/changes/records';
 import { crewProblemsOf, restoreStandDown, signOff } from '$lib/server/checklists/signoff';
 import { currentChecklist } from '$lib/server/checklists/copies';
 import { changesAfterSignOff, nightPropIds, scenesForShow } from '$lib/server/scenes/for-show';
@@ -114,9 +115,9 @@ export const load: PageServerLoad = async (event) => {
 	const checklist = copy.view;
 	const roomNames = new Map(roomRows.map((r) => [r.id, r.name]));
 	const roomName = (id: string | null) => (id ? (roomNames.get(id) ?? null) : null);
-	const lateChanges = checklist.signOff
-		? await changesAfterSignOff(db, venue.id, show.id, new Date(checklist.signOff.at))
-		: [];
+	const [lateChanges, propChanges] = checklist.signOff
+		? [await changesAfterSignOff(db, venue.id, show.id, new Date(checklist.signOff.at)), []]
+		: [[], await openChanges(db, venue.id, show)];
 	const down = new Set(checklist.standDowns.map((d) => d.propId));
 	const failing = new Set(
 		checklist.checks.filter((c) => c.latest?.outcome === 'fail' && c.propId).map((c) => c.propId)
@@ -139,6 +140,8 @@ export const load: PageServerLoad = async (event) => {
 		})),
 		leftOut: left.map((s) => ({ ...s, room: roomName(s.roomId) })),
 		changedAfterSignOff: lateChanges.map((c) => ({ ...c, at: c.at.toISOString() })),
+		// Changes to the night's props since their last signed-off night: each asks for a re-test.
+		propChanges: propChanges.map((c) => ({ ...c, at: c.at.toISOString() })),
 		// Only the failing props are offered here (a night can hold thousands of props); the
 		// stand-down page finds any other by name.
 		standDownChoices: nightProps.filter((p) => !down.has(p.id) && failing.has(p.id)),

@@ -8,11 +8,15 @@ import { findOutput } from '$lib/server/props/outputs';
 import { flatValues, outputValues, touchProp } from '$lib/server/props/records';
 import { hazardsOf } from '$lib/props/output-maths';
 import { curveSchema, outputSchema } from '$lib/schemas/output';
+import { checkReason, lastSignedNight, recordChange } from '$lib/server/changes/records';
+import { localDay } from '$lib/util/when';
+import { curveDifferences, outputDifferences, outputState } from '$lib/props/changes';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const found = await findOutput(db, venue.id, event.params.prop, event.params.output);
+	const signed = await lastSignedNight(db, venue.id, found.prop.id);
 	return {
 		...found,
 		formValues: flatValues(
@@ -24,6 +28,7 @@ export const load: PageServerLoad = async (event) => {
 			['settings']
 		),
 		hazards: hazardsOf(found.output),
+		signedNight: signed ? localDay(signed.date) : null,
 		canEdit: EDITORS.includes(venue.role)
 	};
 };
@@ -47,13 +52,31 @@ export const actions: Actions = {
 		const parsed = await parseNestedForm(event.request, outputSchema);
 		if (!parsed.ok) return fail(400, { action: 'save', values: parsed.raw, errors: parsed.errors });
 		const values = outputValues(parsed.data);
-		await db
-			.update(outputs)
-			.set({
-				...values,
-				curve: values.kind === 'led_string' ? (output.curve ?? { kind: 'cie' }) : null
-			})
-			.where(and(eq(outputs.id, output.id), eq(outputs.venueId, venue.id)));
+		const diffs = outputDifferences(output, values);
+		const gate = await checkReason(db, venue.id, prop.id, diffs, parsed.raw);
+		if (!gate.ok) return fail(400, { action: 'save', values: parsed.raw, errors: gate.errors });
+		await db.transaction(async (tx) => {
+			await tx
+				.update(outputs)
+				.set({
+					...values,
+					curve: values.kind === 'led_string' ? (output.curve ?? { kind: 'cie' }) : null
+				})
+				.where(and(eq(outputs.id, output.id), eq(outputs.venueId, venue.id)));
+			if (gate.reason)
+				await recordChange(tx, {
+					venueId: venue.id,
+					propId: prop.id,
+					outputId: output.id,
+					part: 'output',
+					partName: values.name,
+					diffs,
+					oldValue: outputState(output),
+					newValue: outputState(values),
+					reason: gate.reason,
+					personId: event.locals.person!.id
+				});
+		});
 		await touchProp(db, venue.id, prop.id);
 		return { action: 'save', saved: true };
 	},
@@ -80,10 +103,28 @@ export const actions: Actions = {
 				values: raw,
 				errors: { kind: ['Only LED strings have a brightness curve.'] } as Record<string, string[]>
 			});
-		await db
-			.update(outputs)
-			.set({ curve: parsed.data })
-			.where(and(eq(outputs.id, output.id), eq(outputs.venueId, venue.id)));
+		const diffs = curveDifferences(output.curve, parsed.data);
+		const gate = await checkReason(db, venue.id, prop.id, diffs, raw);
+		if (!gate.ok) return fail(400, { action: 'curve', values: raw, errors: gate.errors });
+		await db.transaction(async (tx) => {
+			await tx
+				.update(outputs)
+				.set({ curve: parsed.data })
+				.where(and(eq(outputs.id, output.id), eq(outputs.venueId, venue.id)));
+			if (gate.reason)
+				await recordChange(tx, {
+					venueId: venue.id,
+					propId: prop.id,
+					outputId: output.id,
+					part: 'curve',
+					partName: output.name,
+					diffs,
+					oldValue: { curve: output.curve },
+					newValue: { curve: parsed.data },
+					reason: gate.reason,
+					personId: event.locals.person!.id
+				});
+		});
 		await touchProp(db, venue.id, prop.id);
 		return { action: 'curve', saved: true };
 	}

@@ -10,6 +10,10 @@ import { parseNestedForm } from '$lib/server/props/form';
 import { getController, getProp, isUuid } from '$lib/server/props/queries';
 import { sensorFormValues, sensorValues, touchProp } from '$lib/server/props/records';
 import type { StoredCaptureSummary } from '$lib/server/props/uploads';
+import { checkReason, lastSignedNight, recordChange } from '$lib/server/changes/records';
+import { localDay } from '$lib/util/when';
+import { RANGE_FIELDS } from '$lib/components/props/sensor-defaults';
+import { differences, sensorDifferences, sensorState } from '$lib/props/changes';
 import { sensorSchema } from '$lib/schemas/sensor';
 import { env } from '$env/dynamic/private';
 import { objectStore } from '$lib/server/objects';
@@ -37,7 +41,7 @@ async function find(event: RequestEvent | Parameters<PageServerLoad>[0], venueId
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const { prop, sensor } = await find(event, venue.id);
-	const [controller, list, keys] = await Promise.all([
+	const [controller, list, keys, signed] = await Promise.all([
 		getController(db, venue.id, prop.controllerId),
 		db
 			.select()
@@ -56,7 +60,8 @@ export const load: PageServerLoad = async (event) => {
 						)
 					)
 					.limit(1)
-			: []
+			: [],
+		lastSignedNight(db, venue.id, prop.id)
 	]);
 	const wanted = event.url.searchParams.get('capture');
 	const shown = list.find((c) => c.id === wanted) ?? list[0] ?? null;
@@ -84,6 +89,7 @@ export const load: PageServerLoad = async (event) => {
 					summary: shown.summary as unknown as StoredCaptureSummary
 				}
 			: null,
+		signedNight: signed ? localDay(signed.date) : null,
 		canEdit: EDITORS.includes(venue.role),
 		// The live readings' endpoint serves designers, owners and show managers.
 		canSeeLive: venue.role !== 'crew',
@@ -98,17 +104,39 @@ export const actions: Actions = {
 		const { prop, sensor } = await find(event, venue.id);
 		const parsed = await parseNestedForm(event.request, sensorSchema);
 		if (!parsed.ok) return fail(400, { action: 'save', values: parsed.raw, errors: parsed.errors });
-		await db
-			.update(sensors)
-			.set(sensorValues(parsed.data))
-			.where(and(eq(sensors.id, sensor.id), eq(sensors.venueId, venue.id)));
+		const values = sensorValues(parsed.data);
+		const diffs = sensorDifferences(sensor, values);
+		const gate = await checkReason(db, venue.id, prop.id, diffs, parsed.raw);
+		if (!gate.ok) return fail(400, { action: 'save', values: parsed.raw, errors: gate.errors });
+		await db.transaction(async (tx) => {
+			await tx
+				.update(sensors)
+				.set(values)
+				.where(and(eq(sensors.id, sensor.id), eq(sensors.venueId, venue.id)));
+			if (gate.reason)
+				await recordChange(tx, {
+					venueId: venue.id,
+					propId: prop.id,
+					sensorId: sensor.id,
+					part: 'sensor',
+					partName: values.name,
+					diffs,
+					oldValue: sensorState(sensor),
+					newValue: sensorState(values),
+					reason: gate.reason,
+					personId: event.locals.person!.id
+				});
+		});
 		await touchProp(db, venue.id, prop.id);
 		return { action: 'save', saved: true };
 	},
 	apply: async (event) => {
 		const venue = requireRole(event, ...EDITORS);
 		const { prop, sensor } = await find(event, venue.id);
-		const parsed = await parseForm(event.request, z.object({ captureId: z.uuid() }));
+		const parsed = await parseForm(
+			event.request,
+			z.object({ captureId: z.uuid(), changeReason: z.string().optional() })
+		);
 		if (!parsed.ok) return fail(400, { action: 'apply', message: 'Choose a capture first.' });
 		const [capture] = await db
 			.select()
@@ -143,10 +171,34 @@ export const actions: Actions = {
 			captureId: capture.id,
 			appliedAt: new Date().toISOString()
 		};
-		await db
-			.update(sensors)
-			.set({ ...range, calibration })
-			.where(and(eq(sensors.id, sensor.id), eq(sensors.venueId, venue.id)));
+		const diffs = differences(RANGE_FIELDS, sensor, range);
+		const gate = await checkReason(db, venue.id, prop.id, diffs, parsed.raw);
+		if (!gate.ok)
+			return fail(400, {
+				action: 'apply',
+				values: parsed.raw,
+				errors: gate.errors,
+				message: gate.errors.changeReason[0]
+			});
+		await db.transaction(async (tx) => {
+			await tx
+				.update(sensors)
+				.set({ ...range, calibration })
+				.where(and(eq(sensors.id, sensor.id), eq(sensors.venueId, venue.id)));
+			if (gate.reason)
+				await recordChange(tx, {
+					venueId: venue.id,
+					propId: prop.id,
+					sensorId: sensor.id,
+					part: 'trigger_range',
+					partName: sensor.name,
+					diffs,
+					oldValue: { near: sensor.near, far: sensor.far, hysteresis: sensor.hysteresis },
+					newValue: { ...range, capture: capture.filename },
+					reason: gate.reason,
+					personId: event.locals.person!.id
+				});
+		});
 		await touchProp(db, venue.id, prop.id);
 		await audit(db, {
 			venueId: venue.id,
