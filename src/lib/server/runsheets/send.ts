@@ -3,6 +3,7 @@ import { renderRunSheet } from '$emails/run-sheet';
 import { renderScheduleChange } from '$emails/schedule-change';
 import { sheetChanges, type SheetChange, type SheetSummary } from '$lib/runsheets/changes';
 import { zonedEventCalendar } from '$lib/runsheets/ics';
+import { showTimesText } from '$lib/schedule/ics';
 import type { Db } from '$lib/server/db/client';
 import type { MailStatus } from '$lib/mail-words';
 import {
@@ -41,7 +42,7 @@ function crewCallIcs(
 		timeZone: venue.timeZone,
 		summary: `Crew call: ${p.position}, ${venue.name}`,
 		location: venue.address,
-		description: show.notes,
+		description: showTimesText({ ...show, crewCall: p.callAt }, venue.timeZone, venue.clock),
 		url: runSheetUrl(origin, venue.slug, show.id, p.personId),
 		sequence,
 		cancelled

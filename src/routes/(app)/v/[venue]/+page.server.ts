@@ -68,7 +68,7 @@ export const load: PageServerLoad = async (event) => {
 			.map((c) => ({
 				position: c.position,
 				room: c.room,
-				call: localTime(c.at, venue.timeZone)
+				call: localTime(c.at, venue.timeZone, venue.clock)
 			}));
 		next = {
 			checklist,
@@ -79,9 +79,9 @@ export const load: PageServerLoad = async (event) => {
 			date: show.date,
 			status: show.status,
 			openingNight: show.openingNight,
-			crewCall: localTime(show.crewCall, venue.timeZone),
-			doorsOpen: localTime(show.doorsOpen, venue.timeZone),
-			doorsClose: localTime(show.doorsClose, venue.timeZone),
+			crewCall: localTime(show.crewCall, venue.timeZone, venue.clock),
+			doorsOpen: localTime(show.doorsOpen, venue.timeZone, venue.clock),
+			doorsClose: localTime(show.doorsClose, venue.timeZone, venue.clock),
 			assigned: crew.length,
 			positions: posts.length,
 			myCalls,

@@ -68,8 +68,8 @@ export const load: PageServerLoad = async (event) => {
 			status: s.status,
 			edited: s.edited,
 			openingNight: s.openingNight,
-			doorsOpen: localTime(s.doorsOpen, venue.timeZone),
-			crewCall: localTime(s.crewCall, venue.timeZone)
+			doorsOpen: localTime(s.doorsOpen, venue.timeZone, venue.clock),
+			crewCall: localTime(s.crewCall, venue.timeZone, venue.clock)
 		})),
 		canEdit: PLANNERS.includes(venue.role)
 	};
@@ -88,7 +88,7 @@ export const actions: Actions = {
 		]);
 		return {
 			values: read.values,
-			preview: previewOf(read.fields, read.nights, venue.timeZone, leaving, overlaps)
+			preview: previewOf(read.fields, read.nights, venue.timeZone, venue.clock, leaving, overlaps)
 		};
 	},
 	save: async (event) => {
@@ -110,7 +110,14 @@ export const actions: Actions = {
 			const n = going.length;
 			return fail(400, {
 				values: read.values,
-				preview: previewOf(read.fields, read.nights, venue.timeZone, leaving, overlaps),
+				preview: previewOf(
+					read.fields,
+					read.nights,
+					venue.timeZone,
+					venue.clock,
+					leaving,
+					overlaps
+				),
 				errors: {
 					...(unconfirmed.length
 						? {

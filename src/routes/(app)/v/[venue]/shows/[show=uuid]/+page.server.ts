@@ -150,15 +150,15 @@ export const load: PageServerLoad = async (event) => {
 			edited: show.edited,
 			notes: show.notes,
 			oneOff: show.seasonId === null,
-			doorsOpen: localTime(show.doorsOpen, tz),
-			doorsClose: localTime(show.doorsClose, tz),
-			crewCall: localTime(show.crewCall, tz)
+			doorsOpen: localTime(show.doorsOpen, tz, venue.clock),
+			doorsClose: localTime(show.doorsClose, tz, venue.clock),
+			crewCall: localTime(show.crewCall, tz, venue.clock)
 		},
 		season: season ?? null,
 		positions: positionList,
 		assignments: here.map((a) => ({
 			...a,
-			call: localTime(a.callOverride ?? show.crewCall, tz),
+			call: localTime(a.callOverride ?? show.crewCall, tz, venue.clock),
 			overridden: a.callOverride !== null
 		})),
 		members: members.map((m) => ({ id: m.id, name: m.name ?? m.email })),
