@@ -47,6 +47,15 @@ export function localTime(at: Date | string, timeZone: string, clock: Clock): st
 	return clockTime(hhmm, clock);
 }
 
+/**
+ * The time held in a Date's own local fields, for components that carry the venue's wall clock
+ * as floating times (the calendar): '19:05' or '7:05 pm'.
+ */
+export function wallClockTime(d: Date, clock: Clock): string {
+	const pad = (n: number) => String(n).padStart(2, '0');
+	return clockTime(`${pad(d.getHours())}:${pad(d.getMinutes())}`, clock);
+}
+
 const WEEKDAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'];
 // Spelt out here rather than taken from the locale data, which differs between versions
 // ('Sep' or 'Sept'), so the server and every browser write the same words.
