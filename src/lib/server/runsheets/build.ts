@@ -304,8 +304,9 @@ export async function buildShowRunSheets(
 			data,
 			summary: {
 				show: STATUS_WORDS[show.status],
-				crewCall: data.crewCall,
-				doors: data.doors,
+				// 24-hour words, so switching the venue's clock does not read as a change of times.
+				crewCall: localTime(callAt, tz, '24h'),
+				doors: `${localTime(show.doorsOpen, tz, '24h')}–${localTime(show.doorsClose, tz, '24h')}`,
 				position: data.position,
 				rooms: data.rooms,
 				scenes: theirScenes.map((s) => s.name),
