@@ -23,7 +23,7 @@ export function clockTime(hhmm: string, clock: Clock): string {
 	const m = HHMM.exec(hhmm.trim());
 	if (!m) return hhmm;
 	const hour = Number(m[1]);
-	if (clock === '24h') return `${String(hour).padStart(2, '0')}:${m[2]}`;
+	if (clock !== '12h') return `${String(hour).padStart(2, '0')}:${m[2]}`;
 	return `${hour % 12 === 0 ? 12 : hour % 12}:${m[2]} ${hour < 12 ? 'am' : 'pm'}`;
 }
 
