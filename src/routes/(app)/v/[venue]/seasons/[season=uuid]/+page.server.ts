@@ -15,7 +15,7 @@ import {
 	overlappingNights,
 	updateSeason
 } from '$lib/server/schedule/seasons';
-import { localDay, localTime } from '$lib/util/when';
+import { localDay, localTime, timeValue } from '$lib/util/when';
 import { overlapQuestion, previewOf, readSeasonForm } from '../season-form.server';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -55,8 +55,8 @@ export const load: PageServerLoad = async (event) => {
 			until: parts?.until ?? '',
 			count: parts?.count ? String(parts.count) : '',
 			rule: season.rule,
-			doorsOpen: season.doorsOpen,
-			doorsClose: season.doorsClose,
+			doorsOpen: timeValue(season.doorsOpen),
+			doorsClose: timeValue(season.doorsClose),
 			crewCallMinutesBefore: String(season.crewCallMinutesBefore),
 			darkNights: season.darkNights.join('\n'),
 			extraNights: season.extraNights.join('\n'),
