@@ -11,7 +11,8 @@ const refs: ActivityRefs = {
 	people: new Map([[PERSON, 'Odile Varn']]),
 	shows: new Map([[SHOW, '2026-10-31']]),
 	scenes: new Map([[SCENE, 'Well of whispers']]),
-	props: new Map()
+	props: new Map(),
+	clock: '24h'
 };
 
 const text = (parts: Part[]) => parts.map((p) => (typeof p === 'string' ? p : p.text)).join('');
@@ -56,6 +57,17 @@ describe('activitySentence', () => {
 		expect(words).not.toContain(action);
 		expect(words).not.toMatch(/[a-z]+_[a-z]+/); // no snake_case field names or role keys
 		expect(words.trim().length).toBeGreaterThan(5);
+	});
+
+	it("writes a show's new times in the venue's clock", () => {
+		const detail = { show: SHOW, doorsOpen: '19:00', doorsClose: '23:00', crewCall: '18:00' };
+		// date-fns format 'h:mm aaa' writes 19:00 as '7:00 pm'
+		expect(text(activitySentence('show.changed', detail, { ...refs, clock: '12h' }))).toContain(
+			': doors 7:00 pm–11:00 pm, crew call 6:00 pm'
+		);
+		expect(text(activitySentence('show.changed', detail, refs))).toContain(
+			': doors 19:00–23:00, crew call 18:00'
+		);
 	});
 
 	it('names people and links the show that still exists', () => {

@@ -2,7 +2,7 @@
 // thing still exists. Audit details are whatever each action stored at the time, so every field is
 // read defensively and an unknown action still reads as plain words, never as a raw key or id.
 import { ROLE_LABELS, type Role } from './roles';
-import { localDay } from './util/when';
+import { clockTime, localDay, type Clock } from './util/when';
 
 /** A piece of a sentence: plain words, or words that link somewhere. */
 export type Part = string | { text: string; href: string };
@@ -16,6 +16,8 @@ export interface ActivityRefs {
 	shows: Map<string, string>;
 	scenes: Map<string, string>;
 	props: Map<string, string>;
+	/** How the venue writes times. */
+	clock: Clock;
 }
 
 type Detail = Record<string, unknown>;
@@ -150,8 +152,10 @@ export function activitySentence(action: string, detail: unknown, refs: Activity
 			return ['added ', showRef(d, refs)];
 		case 'show.changed': {
 			const times = [
-				str(d.doorsOpen) && str(d.doorsClose) ? `doors ${d.doorsOpen}–${d.doorsClose}` : '',
-				str(d.crewCall) ? `crew call ${d.crewCall}` : ''
+				str(d.doorsOpen) && str(d.doorsClose)
+					? `doors ${clockTime(str(d.doorsOpen)!, refs.clock)}–${clockTime(str(d.doorsClose)!, refs.clock)}`
+					: '',
+				str(d.crewCall) ? `crew call ${clockTime(str(d.crewCall)!, refs.clock)}` : ''
 			].filter(Boolean);
 			return [
 				'changed the times of ',

@@ -38,3 +38,27 @@ test('a room can be added, renamed and removed, and bad input is explained', asy
 	await page.getByRole('button', { name: 'Remove Raven Loft' }).click();
 	await expect(page.getByText('Raven Loft')).toHaveCount(0);
 });
+
+test('an owner switches the venue to the 12-hour clock and back', async ({ page }) => {
+	await signIn(page, people.owner);
+	const choose = async (clock: '12-hour' | '24-hour') => {
+		await page.goto(`${TRAIL}/settings`);
+		await page.getByLabel(clock).check();
+		await page.getByRole('button', { name: 'Save settings' }).click();
+		await expect(page.getByRole('status')).toHaveText('Saved.');
+	};
+	const crewCall = page.locator('dt', { hasText: 'Crew call' }).locator('+ dd');
+
+	await choose('12-hour');
+	await page.goto(TRAIL);
+	await expect(crewCall).toHaveText(/^\d{1,2}:\d{2} (am|pm)$/);
+	await page.getByRole('link', { name: /^\w{3} \d{1,2} \w{3} \d{4}$/ }).click();
+	await expect(page.getByText(/crew call \d{1,2}:\d{2} (am|pm) · doors/)).toBeVisible();
+	// The device's picker follows the device; the echo beside it follows the venue.
+	await page.getByLabel('Doors open').fill('19:45');
+	await expect(page.locator('#show-open-echo')).toHaveText(/, 7:45 pm$/);
+
+	await choose('24-hour');
+	await page.goto(TRAIL);
+	await expect(crewCall).toHaveText(/^\d{2}:\d{2}$/);
+});

@@ -58,6 +58,17 @@ describe('what changed between two run sheets', () => {
 		]);
 	});
 
+	it('writes changed times in the venue clock, and a clock switch alone is no change', () => {
+		// date-fns format 'h:mm aaa' writes 17:00 as '5:00 pm' and 23:30 as '11:30 pm'
+		expect(
+			sheetChanges(before, { ...before, crewCall: '16:30', doors: '19:00–23:30' }, '12h')
+		).toEqual([
+			{ what: 'Crew call', before: '5:00 pm', after: '4:30 pm' },
+			{ what: 'Doors', before: '7:00 pm–11:00 pm', after: '7:00 pm–11:30 pm' }
+		]);
+		expect(sheetChanges(before, { ...before }, '12h')).toEqual([]);
+	});
+
 	it('says so when a person is taken off the show or put back on', () => {
 		const off = { ...before, assigned: false };
 		expect(sheetChanges(before, off)).toEqual([

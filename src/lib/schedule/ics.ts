@@ -1,3 +1,5 @@
+import { localDayOf, localTime, zonePlace, type Clock } from '../util/when';
+
 /** One calendar entry: a show, or one person's part in a show. */
 export interface CalendarEvent {
 	/** Stable across feeds and updates, such as 'show-42@gloaming.app'. */
@@ -18,6 +20,22 @@ export interface CalendarOptions {
 	name?: string;
 	/** When the feed was made; becomes every DTSTAMP. */
 	stamp?: Date;
+}
+
+/**
+ * The words of an event's description: the night's times in the venue's zone and clock, then the
+ * show's notes. 'Fri 1 Oct 2027: crew call 6:30 pm, doors 7:30 pm–11:00 pm (New York time).'
+ */
+export function showTimesText(
+	t: { crewCall: Date; doorsOpen: Date; doorsClose: Date; notes?: string | null },
+	timeZone: string,
+	clock: Clock
+): string {
+	const at = (d: Date) => localTime(d, timeZone, clock);
+	const line =
+		`${localDayOf(t.doorsOpen, timeZone)}: crew call ${at(t.crewCall)}, ` +
+		`doors ${at(t.doorsOpen)}–${at(t.doorsClose)} (${zonePlace(timeZone)} time).`;
+	return t.notes ? `${line}\n\n${t.notes}` : line;
 }
 
 export const PRODUCT_ID = '-//Gloaming//Schedule//EN';

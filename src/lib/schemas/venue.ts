@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { isTimeZone } from '$lib/schedule/wall-time';
+import { CLOCKS } from '$lib/util/when';
 
 export const VENUE_KINDS = ['haunt', 'trail', 'exhibit'] as const;
 export const VENUE_KIND_LABELS: Record<(typeof VENUE_KINDS)[number], string> = {
@@ -37,6 +38,7 @@ export const newVenueSchema = z.object({
 });
 
 export const venueSettingsSchema = newVenueSchema.extend({
+	clock: z.enum(CLOCKS, { error: 'Choose how times are written: 24-hour or 12-hour.' }),
 	address: optionalText(200),
 	defaultGroupSize: z.coerce
 		.number({ error: 'Enter a whole number of guests.' })

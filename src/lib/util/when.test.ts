@@ -15,10 +15,12 @@ describe('one clock in the venue zone', () => {
 	for (const zone of zones)
 		it(`shows instants as ${zone} does`, () => {
 			for (const at of instants) {
-				expect(localTime(at, zone)).toBe(formatInTimeZone(at, zone, 'HH:mm'));
+				expect(localTime(at, zone, '24h')).toBe(formatInTimeZone(at, zone, 'HH:mm'));
 				expect(localDate(at, zone)).toBe(formatInTimeZone(at, zone, 'yyyy-MM-dd'));
 				expect(localDayOf(at, zone)).toBe(formatInTimeZone(at, zone, 'EEE d MMM yyyy'));
-				expect(localDateTime(at, zone)).toBe(formatInTimeZone(at, zone, 'EEE d MMM yyyy, HH:mm'));
+				expect(localDateTime(at, zone, '24h')).toBe(
+					formatInTimeZone(at, zone, 'EEE d MMM yyyy, HH:mm')
+				);
 			}
 		});
 

@@ -88,6 +88,7 @@ export async function findSessionAndVenue(
 			venueName: venues.name,
 			kind: venues.kind,
 			timeZone: venues.timeZone,
+			clock: venues.clock,
 			role: memberships.role
 		})
 		.from(sessions)
@@ -100,10 +101,10 @@ export async function findSessionAndVenue(
 		.where(and(eq(sessions.sessionToken, hashOf(token)), gt(sessions.expires, now)))
 		.limit(1);
 	if (!row) return null;
-	const { id, name, email, expires, venueId, venueName, kind, timeZone, role } = row;
+	const { id, name, email, expires, venueId, venueName, kind, timeZone, clock, role } = row;
 	const venue =
-		venueId && role && kind && timeZone && venueName
-			? { id: venueId, slug: row.slug!, name: venueName, kind, timeZone, role }
+		venueId && role && kind && timeZone && clock && venueName
+			? { id: venueId, slug: row.slug!, name: venueName, kind, timeZone, clock, role }
 			: null;
 	return { person: { id, name, email }, expires, venue };
 }

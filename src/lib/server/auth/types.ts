@@ -1,4 +1,5 @@
 import type { Role } from '$lib/roles';
+import type { Clock } from '$lib/util/when';
 
 export interface SessionPerson {
 	id: string;
@@ -12,5 +13,7 @@ export interface VenueContext {
 	name: string;
 	kind: 'haunt' | 'trail' | 'exhibit';
 	timeZone: string;
+	/** How the venue writes times: '19:30' or '7:30 pm'. */
+	clock: Clock;
 	role: Role;
 }

@@ -11,10 +11,12 @@ import {
 	uuid
 } from 'drizzle-orm/pg-core';
 import { ROLES } from '../../roles';
+import { CLOCKS } from '../../util/when';
 import { users } from './auth.schema';
 
 export const venueKind = pgEnum('venue_kind', ['haunt', 'trail', 'exhibit']);
 export const roleEnum = pgEnum('role', ROLES);
+export const clockEnum = pgEnum('clock', CLOCKS);
 
 export const venues = pgTable('venues', {
 	id: uuid('id').primaryKey().defaultRandom(),
@@ -22,6 +24,8 @@ export const venues = pgTable('venues', {
 	slug: text('slug').notNull().unique(),
 	kind: venueKind('kind').notNull(),
 	timeZone: text('time_zone').notNull(),
+	/** How times are written everywhere for this venue: '19:30' or '7:30 pm'. */
+	clock: clockEnum('clock').notNull().default('24h'),
 	address: text('address'),
 	defaultGroupSize: integer('default_group_size').notNull().default(6),
 	dispatchIntervalSeconds: integer('dispatch_interval_seconds').notNull().default(90),

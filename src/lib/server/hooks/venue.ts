@@ -17,6 +17,7 @@ export const venueHandle: Handle = async ({ event, resolve }) => {
 				name: venues.name,
 				kind: venues.kind,
 				timeZone: venues.timeZone,
+				clock: venues.clock,
 				role: memberships.role
 			})
 			.from(venues)

@@ -282,8 +282,8 @@ export async function buildShowRunSheets(
 			venueName: venue.name,
 			address: venue.address,
 			dateLabel: localDay(show.date),
-			crewCall: localTime(callAt, tz),
-			doors: `${localTime(show.doorsOpen, tz)}–${localTime(show.doorsClose, tz)}`,
+			crewCall: localTime(callAt, tz, venue.clock),
+			doors: `${localTime(show.doorsOpen, tz, venue.clock)}–${localTime(show.doorsClose, tz, venue.clock)}`,
 			timeZone: tz,
 			person: { name },
 			position: [...new Set(mine.map((a) => a.position))].join(', '),
@@ -304,8 +304,9 @@ export async function buildShowRunSheets(
 			data,
 			summary: {
 				show: STATUS_WORDS[show.status],
-				crewCall: data.crewCall,
-				doors: data.doors,
+				// 24-hour words, so switching the venue's clock does not read as a change of times.
+				crewCall: localTime(callAt, tz, '24h'),
+				doors: `${localTime(show.doorsOpen, tz, '24h')}–${localTime(show.doorsClose, tz, '24h')}`,
 				position: data.position,
 				rooms: data.rooms,
 				scenes: theirScenes.map((s) => s.name),

@@ -3,6 +3,7 @@ import { renderRunSheet } from '$emails/run-sheet';
 import { renderScheduleChange } from '$emails/schedule-change';
 import { sheetChanges, type SheetChange, type SheetSummary } from '$lib/runsheets/changes';
 import { zonedEventCalendar } from '$lib/runsheets/ics';
+import { showTimesText } from '$lib/schedule/ics';
 import type { Db } from '$lib/server/db/client';
 import type { MailStatus } from '$lib/mail-words';
 import {
@@ -41,7 +42,7 @@ function crewCallIcs(
 		timeZone: venue.timeZone,
 		summary: `Crew call: ${p.position}, ${venue.name}`,
 		location: venue.address,
-		description: show.notes,
+		description: showTimesText({ ...show, crewCall: p.callAt }, venue.timeZone, venue.clock),
 		url: runSheetUrl(origin, venue.slug, show.id, p.personId),
 		sequence,
 		cancelled
@@ -170,7 +171,9 @@ export async function queueRunSheets(
 		// A show that is off: only people who were told about it hear that it is off.
 		if (!on && (!prev || !prev.snapshot.assigned)) continue;
 		const changes: SheetChange[] | undefined =
-			prev && o.reason !== 'auto' ? sheetChanges(prev.snapshot, sheet.summary) : undefined;
+			prev && o.reason !== 'auto'
+				? sheetChanges(prev.snapshot, sheet.summary, venue.clock)
+				: undefined;
 		const row = await record(sheet.personId, sheet.contentHash, sheet.summary, prev);
 		if (!row) continue; // another server took this revision
 		const ics = crewCallIcs(
@@ -223,7 +226,7 @@ export async function queueRunSheets(
 					venueName: venue.name,
 					dateLabel: localDay(show.date),
 					person: { name: person.name ?? person.email },
-					changes: sheetChanges(prev.snapshot, snapshot),
+					changes: sheetChanges(prev.snapshot, snapshot, venue.clock),
 					note: 'You are no longer on the crew for this night; the crew call in your calendar is cancelled.'
 				});
 				const ics = crewCallIcs(

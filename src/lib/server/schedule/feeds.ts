@@ -1,6 +1,6 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
-import { buildCalendar, type CalendarEvent } from '../../schedule';
+import { buildCalendar, showTimesText, type CalendarEvent } from '../../schedule';
 import type { Db } from '../db/client';
 import { assignments, calendarFeeds, memberships, positions, shows, venues } from '../db/schema';
 
@@ -69,7 +69,13 @@ export async function feedCalendar(db: Db, token: string, origin: string) {
 			.from(assignments)
 			.where(and(eq(assignments.venueId, feed.venueId), eq(assignments.personId, feed.personId)));
 		const rows = await db
-			.select({ show: shows, venueName: venues.name, slug: venues.slug })
+			.select({
+				show: shows,
+				venueName: venues.name,
+				slug: venues.slug,
+				timeZone: venues.timeZone,
+				clock: venues.clock
+			})
 			.from(shows)
 			.innerJoin(venues, eq(venues.id, shows.venueId))
 			.where(
@@ -79,14 +85,14 @@ export async function feedCalendar(db: Db, token: string, origin: string) {
 				)
 			)
 			.orderBy(asc(shows.doorsOpen));
-		for (const { show, venueName, slug } of rows) {
+		for (const { show, venueName, slug, timeZone, clock } of rows) {
 			if (show.status === 'dark') continue;
 			events.push({
 				uid: `show-${show.id}@${host}`,
 				start: show.doorsOpen,
 				end: show.doorsClose,
 				summary: `${show.openingNight ? 'Opening night' : 'Show'}: ${venueName}`,
-				description: show.notes,
+				description: showTimesText(show, timeZone, clock),
 				cancelled: show.status === 'cancelled',
 				sequence: show.sequence,
 				url: `${origin}/v/${slug}/shows/${show.id}`
@@ -107,7 +113,9 @@ export async function feedCalendar(db: Db, token: string, origin: string) {
 			position: positions.name,
 			show: shows,
 			venueName: venues.name,
-			slug: venues.slug
+			slug: venues.slug,
+			timeZone: venues.timeZone,
+			clock: venues.clock
 		})
 		.from(assignments)
 		.innerJoin(shows, eq(shows.id, assignments.showId))
@@ -129,7 +137,11 @@ export async function feedCalendar(db: Db, token: string, origin: string) {
 			start: r.callOverride ?? r.show.crewCall,
 			end: r.show.doorsClose,
 			summary: `Crew call: ${r.position}, ${r.venueName}`,
-			description: r.show.notes,
+			description: showTimesText(
+				{ ...r.show, crewCall: r.callOverride ?? r.show.crewCall },
+				r.timeZone,
+				r.clock
+			),
 			cancelled: r.show.status === 'cancelled',
 			sequence: r.show.sequence,
 			url: `${origin}/v/${r.slug}/shows/${r.show.id}`

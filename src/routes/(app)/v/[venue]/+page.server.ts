@@ -71,7 +71,7 @@ export const load: PageServerLoad = async (event) => {
 			.map((c) => ({
 				position: c.position,
 				room: c.room,
-				call: localTime(c.at, venue.timeZone)
+				call: localTime(c.at, venue.timeZone, venue.clock)
 			}));
 		next = {
 			checklist,
@@ -82,9 +82,9 @@ export const load: PageServerLoad = async (event) => {
 			date: show.date,
 			status: show.status,
 			openingNight: show.openingNight,
-			crewCall: localTime(show.crewCall, venue.timeZone),
-			doorsOpen: localTime(show.doorsOpen, venue.timeZone),
-			doorsClose: localTime(show.doorsClose, venue.timeZone),
+			crewCall: localTime(show.crewCall, venue.timeZone, venue.clock),
+			doorsOpen: localTime(show.doorsOpen, venue.timeZone, venue.clock),
+			doorsClose: localTime(show.doorsClose, venue.timeZone, venue.clock),
 			assigned: crew.length,
 			positions: posts.length,
 			myCalls,
@@ -104,7 +104,7 @@ export const load: PageServerLoad = async (event) => {
 			boards: quiet.map((b) => ({
 				id: b.controllerId,
 				name: b.name,
-				lastHeard: b.lastAt ? localDateTime(b.lastAt, venue.timeZone) : null
+				lastHeard: b.lastAt ? localDateTime(b.lastAt, venue.timeZone, venue.clock) : null
 			}))
 		},
 		openFaults: openFaults.map((f) => ({

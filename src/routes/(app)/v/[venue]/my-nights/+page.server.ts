@@ -54,8 +54,8 @@ export const load: PageServerLoad = async (event) => {
 			date: m.date,
 			status: m.status,
 			position: m.position,
-			call: localTime(m.callOverride ?? m.crewCall, venue.timeZone),
-			doorsOpen: localTime(m.doorsOpen, venue.timeZone)
+			call: localTime(m.callOverride ?? m.crewCall, venue.timeZone, venue.clock),
+			doorsOpen: localTime(m.doorsOpen, venue.timeZone, venue.clock)
 		})),
 		nights: nights.map((n) => n.date),
 		away: away.map((a) => a.date),

@@ -8,7 +8,7 @@ import {
 	type SeasonFields
 } from '$lib/server/schedule/seasons';
 import { seasonFormSchema } from '$lib/schemas/schedule';
-import { localTime } from '$lib/util/when';
+import { localTime, type Clock } from '$lib/util/when';
 
 /** Reads the season form; a failure is ready to return from an action. */
 export async function readSeasonForm(request: Request, timeZone: string) {
@@ -64,6 +64,7 @@ export function previewOf(
 	fields: SeasonFields,
 	nights: ReturnType<typeof previewNights>,
 	timeZone: string,
+	clock: Clock,
 	leaving: LeavingShow[] = [],
 	overlaps: OverlappingNight[] = []
 ) {
@@ -72,9 +73,9 @@ export function previewOf(
 		rule: fields.rule,
 		nights: nights.map((n) => ({
 			date: n.date,
-			doorsOpen: localTime(n.doorsOpen, timeZone),
-			doorsClose: localTime(n.doorsClose, timeZone),
-			crewCall: localTime(n.crewCall, timeZone),
+			doorsOpen: localTime(n.doorsOpen, timeZone, clock),
+			doorsClose: localTime(n.doorsClose, timeZone, clock),
+			crewCall: localTime(n.crewCall, timeZone, clock),
 			extra: n.extra,
 			opening: n.date === fields.openingNight
 		})),

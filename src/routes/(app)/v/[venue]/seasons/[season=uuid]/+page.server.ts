@@ -15,7 +15,7 @@ import {
 	overlappingNights,
 	updateSeason
 } from '$lib/server/schedule/seasons';
-import { localDay, localTime } from '$lib/util/when';
+import { localDay, localTime, timeValue } from '$lib/util/when';
 import { overlapQuestion, previewOf, readSeasonForm } from '../season-form.server';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -55,8 +55,8 @@ export const load: PageServerLoad = async (event) => {
 			until: parts?.until ?? '',
 			count: parts?.count ? String(parts.count) : '',
 			rule: season.rule,
-			doorsOpen: season.doorsOpen,
-			doorsClose: season.doorsClose,
+			doorsOpen: timeValue(season.doorsOpen),
+			doorsClose: timeValue(season.doorsClose),
 			crewCallMinutesBefore: String(season.crewCallMinutesBefore),
 			darkNights: season.darkNights.join('\n'),
 			extraNights: season.extraNights.join('\n'),
@@ -68,8 +68,8 @@ export const load: PageServerLoad = async (event) => {
 			status: s.status,
 			edited: s.edited,
 			openingNight: s.openingNight,
-			doorsOpen: localTime(s.doorsOpen, venue.timeZone),
-			crewCall: localTime(s.crewCall, venue.timeZone)
+			doorsOpen: localTime(s.doorsOpen, venue.timeZone, venue.clock),
+			crewCall: localTime(s.crewCall, venue.timeZone, venue.clock)
 		})),
 		canEdit: PLANNERS.includes(venue.role)
 	};
@@ -88,7 +88,7 @@ export const actions: Actions = {
 		]);
 		return {
 			values: read.values,
-			preview: previewOf(read.fields, read.nights, venue.timeZone, leaving, overlaps)
+			preview: previewOf(read.fields, read.nights, venue.timeZone, venue.clock, leaving, overlaps)
 		};
 	},
 	save: async (event) => {
@@ -110,7 +110,14 @@ export const actions: Actions = {
 			const n = going.length;
 			return fail(400, {
 				values: read.values,
-				preview: previewOf(read.fields, read.nights, venue.timeZone, leaving, overlaps),
+				preview: previewOf(
+					read.fields,
+					read.nights,
+					venue.timeZone,
+					venue.clock,
+					leaving,
+					overlaps
+				),
 				errors: {
 					...(unconfirmed.length
 						? {

@@ -19,7 +19,7 @@ export const actions: Actions = {
 		const overlaps = await overlappingNights(db, venue.id, read.nights);
 		return {
 			values: read.values,
-			preview: previewOf(read.fields, read.nights, venue.timeZone, [], overlaps)
+			preview: previewOf(read.fields, read.nights, venue.timeZone, venue.clock, [], overlaps)
 		};
 	},
 	save: async (event) => {
@@ -31,7 +31,7 @@ export const actions: Actions = {
 		if (question)
 			return fail(400, {
 				values: read.values,
-				preview: previewOf(read.fields, read.nights, venue.timeZone, [], overlaps),
+				preview: previewOf(read.fields, read.nights, venue.timeZone, venue.clock, [], overlaps),
 				errors: { confirmOverlap: [question] }
 			});
 		const { season, result } = await createSeason(db, venue.id, venue.timeZone, read.fields);

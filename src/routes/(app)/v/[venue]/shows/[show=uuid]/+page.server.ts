@@ -154,15 +154,16 @@ export const load: PageServerLoad = async (event) => {
 			edited: show.edited,
 			notes: show.notes,
 			oneOff: show.seasonId === null,
-			doorsOpen: localTime(show.doorsOpen, tz),
-			doorsClose: localTime(show.doorsClose, tz),
-			crewCall: localTime(show.crewCall, tz)
+			// Local HH:MM for the time inputs; the page writes them in the venue's clock.
+			doorsOpen: localTime(show.doorsOpen, tz, '24h'),
+			doorsClose: localTime(show.doorsClose, tz, '24h'),
+			crewCall: localTime(show.crewCall, tz, '24h')
 		},
 		season: season ?? null,
 		positions: positionList,
 		assignments: here.map((a) => ({
 			...a,
-			call: localTime(a.callOverride ?? show.crewCall, tz),
+			call: localTime(a.callOverride ?? show.crewCall, tz, '24h'),
 			overridden: a.callOverride !== null
 		})),
 		members: members.map((m) => ({ id: m.id, name: m.name ?? m.email })),

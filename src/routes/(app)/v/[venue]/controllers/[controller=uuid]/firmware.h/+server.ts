@@ -48,7 +48,7 @@ export const GET: RequestHandler = async (event) => {
 		})),
 		outputs: outputRows,
 		broker: config.boardBroker,
-		madeAt: localDateTime(new Date(), venue.timeZone)
+		madeAt: localDateTime(new Date(), venue.timeZone, venue.clock)
 	});
 	return new Response(text, {
 		headers: {

@@ -19,8 +19,8 @@ export const load: PageServerLoad = async (event) => {
 		show: {
 			id: s.id,
 			date: s.date,
-			crewCall: localTime(s.crewCall, venue.timeZone),
-			doorsOpen: localTime(s.doorsOpen, venue.timeZone)
+			crewCall: localTime(s.crewCall, venue.timeZone, venue.clock),
+			doorsOpen: localTime(s.doorsOpen, venue.timeZone, venue.clock)
 		},
 		checklist
 	};

@@ -1,0 +1,8 @@
+// Enum values and their labels for venue settings.
+import type { Clock } from '$lib/util/when';
+
+/** The two ways a venue can write times, each with the way it looks. */
+export const CLOCK_LABELS: Record<Clock, { label: string; example: string }> = {
+	'24h': { label: '24-hour', example: '19:30' },
+	'12h': { label: '12-hour', example: '7:30 pm' }
+};
