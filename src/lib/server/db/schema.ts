@@ -8,3 +8,4 @@ export * from './runsheets.schema';
 export * from './checklists.schema';
 export * from './boards.schema';
 export * from './faults.schema';
+export * from './incidents.schema';
