@@ -2,7 +2,7 @@
 // followed up by show managers, owners and the incident's follow-up owner, closed with a closing
 // note by show managers and owners. Every step is a new row (incidents and incident_events are
 // append-only), written with its Activity line in one transaction, under the incident's row lock.
-import { and, asc, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 import { wallToInstant } from '$lib/schedule';
 import type { Role } from '$lib/roles';
@@ -360,7 +360,7 @@ export async function listIncidents(
 
 /** How many of a night's incidents are still open. */
 export async function openIncidentCount(db: Db, venueId: string, showId: string) {
-	return (await listIncidents(db, venueId, { showIds: [showId], openOnly: true })).length;
+	return (await incidentCounts(db, venueId, [showId])).get(showId)?.open ?? 0;
 }
 
 /** The ids of a season's nights, in date order. */
@@ -371,4 +371,24 @@ export async function seasonShowIds(db: Db, venueId: string, seasonId: string) {
 		.where(and(eq(shows.venueId, venueId), eq(shows.seasonId, seasonId)))
 		.orderBy(asc(shows.date));
 	return rows.map((r) => r.id);
+}
+
+/** Each night's incidents and how many are open, for the nights that have any. */
+export async function incidentCounts(db: Db, venueId: string, showIds: string[]) {
+	const out = new Map<string, { total: number; open: number }>();
+	if (!showIds.length) return out;
+	const rows = await db
+		.select({
+			showId: incidents.showId,
+			total: sql<number>`count(*)::int`,
+			open: sql<number>`(count(*) filter (where not exists (
+				select 1 from incident_events e
+				where e.incident_id = ${incidents.id} and e.kind = 'closed'
+			)))::int`
+		})
+		.from(incidents)
+		.where(and(eq(incidents.venueId, venueId), inArray(incidents.showId, showIds)))
+		.groupBy(incidents.showId);
+	for (const r of rows) out.set(r.showId, { total: r.total, open: r.open });
+	return out;
 }

@@ -15,6 +15,7 @@ import {
 	overlappingNights,
 	updateSeason
 } from '$lib/server/schedule/seasons';
+import { incidentCounts } from '$lib/server/incidents/records';
 import { localDay, localTime } from '$lib/util/when';
 import { overlapQuestion, previewOf, readSeasonForm } from '../season-form.server';
 import type { Actions, PageServerLoad } from './$types';
@@ -34,6 +35,15 @@ export const load: PageServerLoad = async (event) => {
 	const season = await findSeason(venue.id, event.params.season);
 	if (!season) error(404, 'There is no such season.');
 	const list = await seasonShows(db, venue.id, season.id);
+	// Incidents are read by show managers and owners (and the crew of each night, elsewhere).
+	const planner = PLANNERS.includes(venue.role);
+	const counts = planner
+		? await incidentCounts(
+				db,
+				venue.id,
+				list.map((s) => s.id)
+			)
+		: new Map<string, { total: number; open: number }>();
 	let parts = null;
 	let summary = season.rule;
 	try {
@@ -69,9 +79,11 @@ export const load: PageServerLoad = async (event) => {
 			edited: s.edited,
 			openingNight: s.openingNight,
 			doorsOpen: localTime(s.doorsOpen, venue.timeZone),
-			crewCall: localTime(s.crewCall, venue.timeZone)
+			crewCall: localTime(s.crewCall, venue.timeZone),
+			incidents: counts.get(s.id) ?? null
 		})),
-		canEdit: PLANNERS.includes(venue.role)
+		incidentTotal: [...counts.values()].reduce((n, c) => n + c.total, 0),
+		canEdit: planner
 	};
 };
 
