@@ -39,13 +39,16 @@ export async function seedDemoIncidents(
 		)[0]?.id ?? null;
 	const at = (time: string) => wallToInstant(date, time, venue.timeZone);
 	const venueId = venue.id;
+	// Read before the transaction: the seed may run on a single connection.
+	const walk = await roomId('Lantern Walk');
+	const barn = await roomId('Hollow Barn');
 	await db.transaction(async (tx) => {
 		const [graze] = await tx
 			.insert(incidents)
 			.values({
 				venueId,
 				showId: show.id,
-				roomId: await roomId('Lantern Walk'),
+				roomId: walk,
 				kind: 'guest_injury',
 				happenedAt: at('20:12'),
 				whatHappened:
@@ -72,7 +75,7 @@ export async function seedDemoIncidents(
 			.values({
 				venueId,
 				showId: show.id,
-				roomId: await roomId('Hollow Barn'),
+				roomId: barn,
 				kind: 'show_stop',
 				happenedAt: at('21:05'),
 				whatHappened: 'The smoke detector in the barn loft went off while the fog scene ran.',
