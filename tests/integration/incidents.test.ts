@@ -10,6 +10,7 @@ import {
 	shows
 } from '../../src/lib/server/db/schema';
 import { recordedNights } from '../../src/lib/server/schedule/seasons';
+import { incidentCounts } from '../../src/lib/server/incidents/records';
 import { autumn } from './autumn';
 import { makePerson, testDb } from './db';
 import { makeNight } from './night';
@@ -148,6 +149,10 @@ describe('incidents on a night', () => {
 			['follow_up', n.manager.id],
 			['closed', n.manager.id]
 		]);
+
+		// The counts the show page, Tonight and the season page give: two reported, one open.
+		const counts = await incidentCounts(db, n.venue.id, [n.show.id, n.other.id]);
+		expect([...counts.entries()]).toEqual([[n.show.id, { total: 2, open: 1 }]]);
 
 		// The page: open first, then closed; the crew member sees the night they are on.
 		const seen = await view(n.crewHere);

@@ -381,9 +381,11 @@ export async function incidentCounts(db: Db, venueId: string, showIds: string[])
 		.select({
 			showId: incidents.showId,
 			total: sql<number>`count(*)::int`,
+			// Written out in full: Drizzle leaves column names unqualified in a one-table select,
+			// which would tie the inner table to itself.
 			open: sql<number>`(count(*) filter (where not exists (
 				select 1 from incident_events e
-				where e.incident_id = ${incidents.id} and e.kind = 'closed'
+				where e.incident_id = "incidents"."id" and e.kind = 'closed'
 			)))::int`
 		})
 		.from(incidents)
