@@ -42,7 +42,7 @@ export interface RegenerateResult {
 	 * removal was not confirmed.
 	 */
 	stayed: number;
-	/** The dates among those that stay because checks were recorded on them (history is kept). */
+	/** The dates among those that stay because checks or incidents were recorded on them (history is kept). */
 	recorded: string[];
 }
 

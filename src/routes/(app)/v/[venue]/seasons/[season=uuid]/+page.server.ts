@@ -170,7 +170,7 @@ export const actions: Actions = {
 		if (!season) return fail(404, { message: 'That season no longer exists.' });
 		const refusal = (dates: string[]) =>
 			fail(400, {
-				message: `${season.name} cannot be removed: checks were recorded on ${dates.length === 1 ? '1 night' : `${dates.length} nights`} (${dates.slice(0, 5).map(localDay).join(', ')}${dates.length > 5 ? '…' : ''}), and check history is kept for good. To end the season early, change its last night; to take a night off the calendar, cancel it on its own page.`
+				message: `${season.name} cannot be removed: checks or incidents were recorded on ${dates.length === 1 ? '1 night' : `${dates.length} nights`} (${dates.slice(0, 5).map(localDay).join(', ')}${dates.length > 5 ? '…' : ''}), and that history is kept for good. To end the season early, change its last night; to take a night off the calendar, cancel it on its own page.`
 			});
 		const recorded = await recordedNights(db, venue.id, season.id);
 		if (recorded.length) return refusal(recorded);
