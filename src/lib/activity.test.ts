@@ -46,7 +46,10 @@ const RECORDED: [string, Record<string, unknown>][] = [
 		}
 	],
 	['run_sheets.sent', { show: SHOW, queued: 6, unchanged: 2 }],
-	['prop.file_uploaded', { file: 'wiring.pdf', propId: GONE }]
+	['prop.file_uploaded', { file: 'wiring.pdf', propId: GONE }],
+	['incident.reported', { show: SHOW, date: '2026-10-31', kind: 'near_miss', stoppedMinutes: 0 }],
+	['incident.followed_up', { show: SHOW, date: '2026-10-31', kind: 'guest_injury' }],
+	['incident.closed', { show: SHOW, date: '2026-10-31', kind: 'show_stop' }]
 ];
 
 describe('activitySentence', () => {
@@ -93,6 +96,27 @@ describe('activitySentence', () => {
 		);
 		expect(links(parts)).toEqual([]);
 		expect(text(parts)).toBe('uploaded the file “wiring.pdf” to a prop');
+	});
+
+	it('says what happened at an incident and links the night’s incidents', () => {
+		const reported = activitySentence(
+			'incident.reported',
+			{ show: SHOW, date: '2026-10-31', kind: 'guest_injury', stoppedMinutes: 12 },
+			refs
+		);
+		expect(text(reported)).toBe(
+			'reported a guest injury on the show on Sat 31 Oct 2026 (the show stopped for 12 minutes)'
+		);
+		expect(links(reported)).toEqual([
+			{ text: 'the show on Sat 31 Oct 2026', href: `/v/hollow-pines-trail/shows/${SHOW}/incidents` }
+		]);
+		expect(
+			text(activitySentence('incident.followed_up', { show: SHOW, kind: 'evacuation' }, refs))
+		).toBe('added a follow-up note to an evacuation on the show on Sat 31 Oct 2026');
+		// A kind this version does not know, and a night since removed.
+		expect(
+			text(activitySentence('incident.closed', { show: GONE, kind: 'meteor', date: 'x' }, refs))
+		).toBe('closed an incident on a show');
 	});
 
 	it('counts with thousands separators and singulars', () => {

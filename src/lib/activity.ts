@@ -2,6 +2,7 @@
 // thing still exists. Audit details are whatever each action stored at the time, so every field is
 // read defensively and an unknown action still reads as plain words, never as a raw key or id.
 import { ROLE_LABELS, type Role } from './roles';
+import { INCIDENT_KIND_PHRASES, type IncidentKind } from './schemas/incident-words';
 import { clockTime, localDay, type Clock } from './util/when';
 
 /** A piece of a sentence: plain words, or words that link somewhere. */
@@ -42,6 +43,19 @@ function showRef(d: Detail, refs: ActivityRefs): Part {
 	const text = date ? `the show on ${localDay(date)}` : 'a show';
 	return id && refs.shows.has(id) ? { text, href: `${refs.base}/shows/${id}` } : text;
 }
+
+/** The night's incidents page, named by the night: "the show on Fri 1 Oct 2027". */
+function incidentsRef(d: Detail, refs: ActivityRefs): Part {
+	const id = str(d.show);
+	const date = isDate(d.date) ? d.date : id ? refs.shows.get(id) : undefined;
+	const text = date ? `the show on ${localDay(date)}` : 'a show';
+	return id && refs.shows.has(id) ? { text, href: `${refs.base}/shows/${id}/incidents` } : text;
+}
+
+const incidentKind = (v: unknown) =>
+	typeof v === 'string' && v in INCIDENT_KIND_PHRASES
+		? INCIDENT_KIND_PHRASES[v as IncidentKind]
+		: 'an incident';
 
 function personRef(v: unknown, refs: ActivityRefs, fallback = 'someone'): Part {
 	const id = str(v);
@@ -214,6 +228,18 @@ export function activitySentence(action: string, detail: unknown, refs: Activity
 				unchanged ? ` (${plural(unchanged, 'sheet')} unchanged, not sent again)` : ''
 			];
 		}
+		case 'incident.reported': {
+			const stopped = num(d.stoppedMinutes);
+			return [
+				`reported ${incidentKind(d.kind)} on `,
+				incidentsRef(d, refs),
+				stopped ? ` (the show stopped for ${plural(stopped, 'minute')})` : ''
+			];
+		}
+		case 'incident.followed_up':
+			return [`added a follow-up note to ${incidentKind(d.kind)} on `, incidentsRef(d, refs)];
+		case 'incident.closed':
+			return [`closed ${incidentKind(d.kind)} on `, incidentsRef(d, refs)];
 		default:
 			return [fallbackWords(action)];
 	}

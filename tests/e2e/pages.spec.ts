@@ -112,6 +112,18 @@ const pages: {
 		},
 		name: 'stand-down'
 	},
+	{
+		role: 'manager',
+		path: `${TRAIL}/seasons`,
+		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027', 'Incidents and show stops'],
+		name: 'incidents'
+	},
+	{
+		role: 'crew',
+		path: `${TRAIL}/my-nights`,
+		follow: ['Checklist for Fri 1 Oct 2027', 'Report an incident'],
+		name: 'crew-incidents'
+	},
 	{ role: 'manager', path: `${TRAIL}/safety`, name: 'safety-items' },
 	{
 		role: 'crew',

@@ -195,6 +195,7 @@ const MATRIX: Record<string, Entry> = {
 		load: 'notCrew',
 		actions: { preview: 'planners', save: 'planners', remove: 'planners' }
 	},
+	'/(app)/v/[venue]/seasons/[season=uuid]/incidents.csv': { GET: 'planners' },
 	'/(app)/v/[venue]/shows/[show=uuid]': {
 		load: 'crewIfAssigned',
 		actions: {
@@ -214,6 +215,12 @@ const MATRIX: Record<string, Entry> = {
 		actions: { default: 'planners' }
 	},
 	'/(app)/v/[venue]/shows/[show=uuid]/checklist': { load: 'assigned' },
+	// Anyone on the night reports; a follow-up note from crew with an empty form is a 400 (who may
+	// write one is the incident's question, asked once it is named); closing is for planners.
+	'/(app)/v/[venue]/shows/[show=uuid]/incidents': {
+		load: 'assigned',
+		actions: { report: 'assigned', followUp: 'assigned', close: 'planners' }
+	},
 	'/(app)/v/[venue]/shows/[show=uuid]/checklist/print': { load: 'assigned' },
 	'/(app)/v/[venue]/shows/[show=uuid]/checklist/photos/[result=uuid]': { GET: 'assigned' },
 	'/(app)/v/[venue]/shows/[show=uuid]/run-sheets': {

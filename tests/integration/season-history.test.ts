@@ -85,7 +85,7 @@ describe('a season with recorded check results', () => {
 		const res = await callAction(page.actions.remove as never, { ...at, form: {} });
 		expect(res.status).toBe(400);
 		expect(res.body!.message).toBe(
-			'Autumn 2027 cannot be removed: checks were recorded on 1 night (Sat 2 Oct 2027), and check history is kept for good. To end the season early, change its last night; to take a night off the calendar, cancel it on its own page.'
+			'Autumn 2027 cannot be removed: checks or incidents were recorded on 1 night (Sat 2 Oct 2027), and that history is kept for good. To end the season early, change its last night; to take a night off the calendar, cancel it on its own page.'
 		);
 		expect(await db.select().from(seasons).where(eq(seasons.id, season.id))).toHaveLength(1);
 		expect(await resultStored(result.id)).toBe(true);

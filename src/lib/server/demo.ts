@@ -18,6 +18,7 @@ import { seedLanternWalk } from './demo-lantern-walk';
 import { seedDemoCalibration } from './demo-calibration';
 import { seedDemoScenes } from './demo-scenes';
 import { seedDemoFaults } from './demo-faults';
+import { seedDemoIncidents } from './demo-incidents';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
 export const DEMO_PASSWORD = 'lantern-demo-2026';
@@ -104,6 +105,13 @@ export async function seedDemo(db: Db) {
 	}
 	await seedSchedule(db, ids);
 	await seedDemoFaults(db, DEMO_SEASON.venueSlug, ids);
+	await seedDemoIncidents(
+		db,
+		DEMO_SEASON.venueSlug,
+		DEMO_SEASON.name,
+		DEMO_SEASON.openingNight,
+		ids
+	);
 	return ids;
 }
 

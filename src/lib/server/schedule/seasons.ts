@@ -42,7 +42,7 @@ export interface RegenerateResult {
 	 * removal was not confirmed.
 	 */
 	stayed: number;
-	/** The dates among those that stay because checks were recorded on them (history is kept). */
+	/** The dates among those that stay because checks or incidents were recorded on them (history is kept). */
 	recorded: string[];
 }
 
@@ -58,7 +58,7 @@ export interface LeavingShow {
 	id: string;
 	date: string;
 	assignments: number;
-	/** Check results, sign-offs and stand-downs recorded on the night: such a night always stays. */
+	/** Check results, sign-offs, stand-downs and incidents recorded on the night: such a night always stays. */
 	results: number;
 }
 
@@ -69,7 +69,8 @@ export interface LeavingShow {
  */
 const history = sql<number>`((select count(*) from check_results h where h.show_id = "shows"."id")
 	+ (select count(*) from sign_offs h where h.show_id = "shows"."id")
-	+ (select count(*) from stand_downs h where h.show_id = "shows"."id"))::int`;
+	+ (select count(*) from stand_downs h where h.show_id = "shows"."id")
+	+ (select count(*) from incidents h where h.show_id = "shows"."id"))::int`;
 
 type Reader = Pick<Db, 'select'>;
 

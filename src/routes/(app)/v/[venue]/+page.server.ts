@@ -15,6 +15,7 @@ import { runSheetDelivery } from '$lib/server/runsheets/send';
 import { listFaults } from '$lib/server/faults/records';
 import { UNHEARD_MINUTES, quietBoards } from '$lib/server/boards/live';
 import { localDateTime } from '$lib/util/when';
+import { openIncidentCount } from '$lib/server/incidents/records';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -56,6 +57,8 @@ export const load: PageServerLoad = async (event) => {
 		const mine = crew.filter((a) => a.personId === event.locals.person!.id);
 		const canOpen = planner || mine.length > 0;
 		const checklist = plannerChecklist ?? (canOpen && scheduled ? await summary() : null);
+		// The night's open incidents, for those who may open its incidents page.
+		const openIncidents = canOpen ? await openIncidentCount(db, venue.id, show.id) : null;
 		// Every post the person has on the night, earliest call first (no extra read: the crew and
 		// positions are loaded above).
 		const myCalls = mine
@@ -90,7 +93,8 @@ export const load: PageServerLoad = async (event) => {
 			myCalls,
 			problems: conflicts.length,
 			canOpen: venue.role !== 'crew' || mine.length > 0,
-			canCheck: canOpen
+			canCheck: canOpen,
+			openIncidents
 		};
 	}
 	return {

@@ -15,6 +15,7 @@ import {
 	overlappingNights,
 	updateSeason
 } from '$lib/server/schedule/seasons';
+import { incidentCounts } from '$lib/server/incidents/records';
 import { localDay, localTime, timeValue } from '$lib/util/when';
 import { overlapQuestion, previewOf, readSeasonForm } from '../season-form.server';
 import type { Actions, PageServerLoad } from './$types';
@@ -34,6 +35,15 @@ export const load: PageServerLoad = async (event) => {
 	const season = await findSeason(venue.id, event.params.season);
 	if (!season) error(404, 'There is no such season.');
 	const list = await seasonShows(db, venue.id, season.id);
+	// Incidents are read by show managers and owners (and the crew of each night, elsewhere).
+	const planner = PLANNERS.includes(venue.role);
+	const counts = planner
+		? await incidentCounts(
+				db,
+				venue.id,
+				list.map((s) => s.id)
+			)
+		: new Map<string, { total: number; open: number }>();
 	let parts = null;
 	let summary = season.rule;
 	try {
@@ -69,9 +79,11 @@ export const load: PageServerLoad = async (event) => {
 			edited: s.edited,
 			openingNight: s.openingNight,
 			doorsOpen: localTime(s.doorsOpen, venue.timeZone, venue.clock),
-			crewCall: localTime(s.crewCall, venue.timeZone, venue.clock)
+			crewCall: localTime(s.crewCall, venue.timeZone, venue.clock),
+			incidents: counts.get(s.id) ?? null
 		})),
-		canEdit: PLANNERS.includes(venue.role)
+		incidentTotal: [...counts.values()].reduce((n, c) => n + c.total, 0),
+		canEdit: planner
 	};
 };
 
@@ -165,7 +177,7 @@ export const actions: Actions = {
 		if (!season) return fail(404, { message: 'That season no longer exists.' });
 		const refusal = (dates: string[]) =>
 			fail(400, {
-				message: `${season.name} cannot be removed: checks were recorded on ${dates.length === 1 ? '1 night' : `${dates.length} nights`} (${dates.slice(0, 5).map(localDay).join(', ')}${dates.length > 5 ? '…' : ''}), and check history is kept for good. To end the season early, change its last night; to take a night off the calendar, cancel it on its own page.`
+				message: `${season.name} cannot be removed: checks or incidents were recorded on ${dates.length === 1 ? '1 night' : `${dates.length} nights`} (${dates.slice(0, 5).map(localDay).join(', ')}${dates.length > 5 ? '…' : ''}), and that history is kept for good. To end the season early, change its last night; to take a night off the calendar, cancel it on its own page.`
 			});
 		const recorded = await recordedNights(db, venue.id, season.id);
 		if (recorded.length) return refusal(recorded);

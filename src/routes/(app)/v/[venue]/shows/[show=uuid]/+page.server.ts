@@ -35,6 +35,7 @@ import {
 	showStatusSchema,
 	showTimesSchema
 } from '$lib/schemas/schedule';
+import { incidentCounts } from '$lib/server/incidents/records';
 import { localTime } from '$lib/util/when';
 import { noticeRunSheetChanges, runSheetDelivery } from '$lib/server/runsheets/send';
 import type { Actions, PageServerLoad } from './$types';
@@ -113,6 +114,11 @@ export const load: PageServerLoad = async (event) => {
 		planner ? runSheetDelivery(db, venue.id, show.id) : null
 	]);
 	const checklist = copy.view;
+	// The night's incidents page is for planners and whoever is on the night.
+	const onNight = planner || here.some((a) => a.personId === person.id);
+	const incidentCount = onNight
+		? ((await incidentCounts(db, venue.id, [show.id])).get(show.id) ?? { total: 0, open: 0 })
+		: null;
 	const roomNames = new Map(roomRows.map((r) => [r.id, r.name]));
 	const roomName = (id: string | null) => (id ? (roomNames.get(id) ?? null) : null);
 	const [lateChanges, propChanges] = checklist.signOff
@@ -170,7 +176,8 @@ export const load: PageServerLoad = async (event) => {
 		conflicts,
 		crewProblems: checklist.signOff ? [] : crewProblemsOf(conflicts),
 		canEdit: planner,
-		runSheets
+		runSheets,
+		incidents: incidentCount
 	};
 };
 
