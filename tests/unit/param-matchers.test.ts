@@ -52,7 +52,18 @@ describe('uuid param matcher', () => {
 		const ids = params.filter((p) => !NOT_IDS.has(p.name));
 		// The id folders this app has today, so a rename cannot quietly empty the check.
 		expect(new Set(ids.map((p) => p.name))).toEqual(
-			new Set(['show', 'prop', 'scene', 'season', 'person', 'sensor', 'output', 'file', 'result'])
+			new Set([
+				'show',
+				'prop',
+				'scene',
+				'season',
+				'person',
+				'sensor',
+				'output',
+				'file',
+				'result',
+				'controller'
+			])
 		);
 		const unmatched = ids.filter((p) => p.matcher !== 'uuid').map((p) => p.folder);
 		expect(unmatched).toEqual([]);
