@@ -15,7 +15,18 @@ import { env } from '$env/dynamic/private';
 import { objectStore } from '$lib/server/objects';
 import { discardObjects } from '$lib/server/object-cleanup';
 import { removeCapture } from '$lib/server/props/removal';
+import {
+	BASELINE_WINDOW_WORDS,
+	baselineWords,
+	judgeNights,
+	nightlyBaselines
+} from '$lib/server/boards/baselines';
+import { localDate, localDay } from '$lib/util/when';
+import { figure } from '$lib/quantity';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
+
+/** The baseline history looks back this far: a season. */
+const HISTORY_DAYS = 120;
 
 async function find(event: RequestEvent | Parameters<PageServerLoad>[0], venueId: string) {
 	const prop = await getProp(db, venueId, event.params.prop);
@@ -37,7 +48,9 @@ async function find(event: RequestEvent | Parameters<PageServerLoad>[0], venueId
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const { prop, sensor } = await find(event, venue.id);
-	const [controller, list, keys] = await Promise.all([
+	const today = localDate(new Date(), venue.timeZone);
+	const since = new Date(Date.parse(today) - HISTORY_DAYS * 86_400_000).toISOString().slice(0, 10);
+	const [controller, list, keys, nights] = await Promise.all([
 		getController(db, venue.id, prop.controllerId),
 		db
 			.select()
@@ -56,8 +69,11 @@ export const load: PageServerLoad = async (event) => {
 						)
 					)
 					.limit(1)
-			: []
+			: [],
+		nightlyBaselines(db, venue.id, [sensor.id], { upTo: today, from: since })
 	]);
+	const last = nights.at(-1);
+	const judged = last ? judgeNights(nights, sensor.id, last.showId, sensor.calibration) : null;
 	const wanted = event.url.searchParams.get('capture');
 	const shown = list.find((c) => c.id === wanted) ?? list[0] ?? null;
 	return {
@@ -88,6 +104,20 @@ export const load: PageServerLoad = async (event) => {
 		// The live readings' endpoint serves designers, owners and show managers.
 		canSeeLive: venue.role !== 'crew',
 		boardHasKey: keys.length > 0,
+		baselines: {
+			window: BASELINE_WINDOW_WORDS,
+			nights: nights.map((n) => ({
+				day: localDay(n.date),
+				date: n.date,
+				baseline: n.baseline,
+				shown: figure(n.baseline),
+				readings: n.readings
+			})),
+			/** What the latest night's baseline says against the band; null when nothing to say. */
+			words: judged ? baselineWords(judged, sensor.calibration) : null,
+			state: judged?.state ?? 'unknown',
+			lastDay: last ? localDay(last.date) : null
+		},
 		timeZone: venue.timeZone
 	};
 };
