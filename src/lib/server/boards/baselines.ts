@@ -100,9 +100,11 @@ export function baselineWords(
 	calibration: SensorCalibration | null
 ): string | null {
 	if (!calibration) return null;
-	const band = `${figure(calibration.baselineLow)} to ${figure(calibration.baselineHigh)}`;
+	// Readings to six significant figures: a band's edges often differ only in the fifth.
+	const r = (v: number) => figure(v, 6);
+	const band = `${r(calibration.baselineLow)} to ${r(calibration.baselineHigh)}`;
 	if (j.state === 'outside')
-		return `Tonight's idle baseline (${figure(j.tonight)}, ${BASELINE_WINDOW_WORDS}) is ${
+		return `Tonight's idle baseline (${r(j.tonight)}, ${BASELINE_WINDOW_WORDS}) is ${
 			j.side === 'high' ? 'above' : 'below'
 		} the calibrated band ${band}: the sensor has drifted. Recalibrate it or look for what changed.`;
 	if (j.state === 'trending') {
@@ -110,7 +112,7 @@ export function baselineWords(
 		return `The idle baseline is ${j.side === 'high' ? 'rising' : 'falling'} by ${figure(
 			Math.abs(j.slopePerNight),
 			2
-		)} a night (tonight ${figure(j.tonight)}) and would leave the calibrated band ${band} in about ${
+		)} a night (tonight ${r(j.tonight)}) and would leave the calibrated band ${band} in about ${
 			n === 1 ? 'one night' : `${n} nights`
 		}.`;
 	}
