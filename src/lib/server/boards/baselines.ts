@@ -25,13 +25,13 @@ export interface NightBaseline {
 
 /**
  * The nightly baselines of these sensors, for the venue's shows on or before `upTo` (a local date)
- * and after `from`, oldest first. Nights with no idle minutes in the window have no row.
+ * and from `from`, oldest first (either may be left out). Nights with no idle minutes in the window have no row.
  */
 export async function nightlyBaselines(
 	db: Db,
 	venueId: string,
 	sensorIds: string[],
-	{ upTo, from }: { upTo: string; from?: string }
+	{ upTo, from }: { upTo?: string; from?: string }
 ): Promise<NightBaseline[]> {
 	if (!sensorIds.length) return [];
 	const ids = sql.join(
@@ -48,7 +48,7 @@ export async function nightlyBaselines(
 			and m.minute < sh.doors_open
 		where sh.venue_id = ${venueId} and s.id in (${ids})
 			and sh.status = 'scheduled'
-			and sh.date <= ${upTo}::date
+			${upTo ? sql`and sh.date <= ${upTo}::date` : sql``}
 			${from ? sql`and sh.date >= ${from}::date` : sql``}
 			and (s.calibration is null
 				or case when s.calibration->>'direction' = 'down'

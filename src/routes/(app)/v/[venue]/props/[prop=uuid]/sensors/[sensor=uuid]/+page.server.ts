@@ -21,12 +21,12 @@ import {
 	judgeNights,
 	nightlyBaselines
 } from '$lib/server/boards/baselines';
-import { localDate, localDay } from '$lib/util/when';
+import { localDay } from '$lib/util/when';
 import { figure } from '$lib/quantity';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
-/** The baseline history looks back this far: a season. */
-const HISTORY_DAYS = 120;
+/** The baseline history shows this many of the latest nights with readings: a season or two. */
+const HISTORY_NIGHTS = 90;
 
 async function find(event: RequestEvent | Parameters<PageServerLoad>[0], venueId: string) {
 	const prop = await getProp(db, venueId, event.params.prop);
@@ -48,8 +48,6 @@ async function find(event: RequestEvent | Parameters<PageServerLoad>[0], venueId
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const { prop, sensor } = await find(event, venue.id);
-	const today = localDate(new Date(), venue.timeZone);
-	const since = new Date(Date.parse(today) - HISTORY_DAYS * 86_400_000).toISOString().slice(0, 10);
 	const [controller, list, keys, nights] = await Promise.all([
 		getController(db, venue.id, prop.controllerId),
 		db
@@ -70,7 +68,7 @@ export const load: PageServerLoad = async (event) => {
 					)
 					.limit(1)
 			: [],
-		nightlyBaselines(db, venue.id, [sensor.id], { upTo: today, from: since })
+		nightlyBaselines(db, venue.id, [sensor.id], {}).then((all) => all.slice(-HISTORY_NIGHTS))
 	]);
 	const last = nights.at(-1);
 	const judged = last ? judgeNights(nights, sensor.id, last.showId, sensor.calibration) : null;
