@@ -56,6 +56,12 @@ test('the sensor page’s live chart gets new points while the board sends readi
 	await expect.poll(points, { timeout: 15_000 }).toBeGreaterThan(first);
 	await expect(live.getByTestId('heard')).toHaveText(/Board heard \d+ s ago/);
 	await expect(live).toContainText(/Now: \d[\d.,]* counts, depth \d+ %/);
+	if (process.env.SCREENSHOTS) {
+		await page.setViewportSize({ width: 390, height: 844 });
+		await page.getByTestId('baseline-history').screenshot({
+			path: 'tests/e2e/screenshots/dusk-sensor-baselines-390.png'
+		});
+	}
 });
 
 test('on a phone, the crew’s sensor test takes the present reading from the board', async ({
@@ -86,13 +92,15 @@ test('on a phone, the crew’s sensor test takes the present reading from the bo
 		/Board idle reading [\d,.]+, taken at \d\d:\d\d:\d\d/,
 		{ timeout: 20_000 }
 	);
-	await card.getByRole('button', { name: /^Take the present reading/ }).click();
+	await card.getByRole('button', { name: 'Take the present reading', exact: true }).click();
 	await expect(card.getByRole('status').filter({ hasText: /Hand in now/ })).toBeVisible();
 	await expect(card.getByLabel('Present reading')).toHaveValue(/^\d+(\.\d+)?$/, {
 		timeout: 15_000
 	});
 	await expect(card.getByLabel('Idle reading')).toHaveValue(/^\d+(\.\d+)?$/);
 	await expect(card.getByTestId('filled-from-board')).toBeVisible();
+	if (process.env.SCREENSHOTS)
+		await card.screenshot({ path: 'tests/e2e/screenshots/dusk-crew-board-card-390.png' });
 	// Typing over a number makes it a typed reading again.
 	await card.getByLabel('Present reading').fill('1600');
 	await expect(card.getByTestId('filled-from-board')).toHaveCount(0);

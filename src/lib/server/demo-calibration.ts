@@ -68,7 +68,7 @@ export async function seedDemoBaselines(db: Db, slug: string) {
 	// Small fixed wobbles, so the line is not ruled straight.
 	const wobble = [0.04, -0.06, 0.02, -0.03, 0.05, -0.02, 0.03, -0.04, 0.01, 0.03, -0.02, 0.02];
 	const rows = nights.flatMap((n, i) => {
-		const creep = i < 5 ? 0 : (i - 4) * 0.09;
+		const creep = i < 5 ? 0 : (i - 4) * 0.22;
 		const mean = mid + half * (-0.1 + creep + wobble[i]);
 		return Array.from({ length: 6 }, (_, k) => ({
 			venueId,
