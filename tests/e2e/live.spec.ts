@@ -104,5 +104,12 @@ test('on a phone, the crew’s sensor test takes the present reading from the bo
 	// Typing over a number makes it a typed reading again.
 	await card.getByLabel('Present reading').fill('1600');
 	await expect(card.getByTestId('filled-from-board')).toHaveCount(0);
+	// Without signal the button goes and typing works as ever.
+	await phone.setOffline(true);
+	await expect(
+		card.getByRole('button', { name: 'Take the present reading', exact: true })
+	).toHaveCount(0, { timeout: 10_000 });
+	await card.getByLabel('Idle reading').fill('1480');
+	await expect(card.getByLabel('Idle reading')).toHaveValue('1480');
 	await phone.close();
 });
