@@ -140,10 +140,16 @@ export async function baselineAlerts(
 	venueId: string,
 	show: { id: string; date: string }
 ): Promise<BaselineAlert[]> {
+	const from = new Date(Date.parse(show.date) - SEASON_DAYS * 86_400_000)
+		.toISOString()
+		.slice(0, 10);
+	// Only sensors whose boards have sent anything this season: one index probe each.
 	const list = (await db.execute(sql`
 		select s.id, s.name, s.calibration, p.id as prop_id, p.name as prop_name
 		from sensors s join props p on p.id = s.prop_id and p.venue_id = s.venue_id
 		where s.venue_id = ${venueId} and s.calibration is not null
+			and exists (select 1 from reading_minutes m
+				where m.sensor_id = s.id and m.minute >= ${from}::date - 1)
 		order by p.name, s.name`)) as unknown as {
 		id: string;
 		name: string;
@@ -152,9 +158,6 @@ export async function baselineAlerts(
 		prop_name: string;
 	}[];
 	if (!list.length) return [];
-	const from = new Date(Date.parse(show.date) - SEASON_DAYS * 86_400_000)
-		.toISOString()
-		.slice(0, 10);
 	const nights = await nightlyBaselines(
 		db,
 		venueId,
