@@ -11,7 +11,9 @@
 //   BENCH_SKIP_BUILD=1   use the build/ already there
 //   BENCH_ROUTES=checklist,show   only the routes whose name contains one of these (the bare route,
 //     signed out, always runs as the floor)
-//   BENCH_ROUTES_ONLY=1   skip season expansion and capture analysis
+//   BENCH_ROUTES_ONLY=1   skip season expansion, capture analysis and the boards
+//   BENCH_ONLY=boards   only the boards benchmark (scripts/bench/boards.mjs, its own variables there;
+//     BENCH_BOARD_SECONDS=15 for a short try); BENCH_BOARDS_SKIP=1 leaves it out of the full run
 import http from 'node:http';
 import { existsSync, readFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
@@ -28,6 +30,10 @@ const CONNECTIONS = 50;
 const PASSWORD = 'lantern-demo-2026';
 
 ensureDependencies();
+if (process.env.BENCH_ONLY === 'boards') {
+	const res = spawnSync(process.execPath, ['scripts/bench/boards.mjs'], { stdio: 'inherit' });
+	process.exit(res.status ?? 1);
+}
 const base = await ensurePostgres({
 	dataDir: ports.pgDir,
 	port: ports.pgPort,
@@ -255,6 +261,29 @@ try {
 			mb(capture.plain.peak),
 			ratio(capture.stream.peak, capture.plain.peak)
 		]);
+		if (!process.env.BENCH_BOARDS_SKIP) {
+			console.log('[bench] boards through the broker…');
+			const b = nodeJson(['scripts/bench/boards.mjs', '--json', '--keep-running']);
+			const what = `${b.boards} boards at ${b.hz} readings/s for ${b.seconds} s (${b.stored} of ${b.expected} stored)`;
+			table.push([
+				`${what}: readings stored per second vs a bare subscriber's count`,
+				b.appPerSecond.toFixed(0),
+				b.barePerSecond.toFixed(0),
+				ratio(b.appPerSecond, b.barePerSecond)
+			]);
+			table.push([
+				'boards: lag p95, publish to stored vs publish to the bare subscriber',
+				ms(b.appLagP95),
+				ms(b.bareLagP95),
+				ratio(b.appLagP95, Math.max(1, b.bareLagP95))
+			]);
+			table.push([
+				'boards: app memory, peak through the readings vs idle',
+				mb(b.peakMemory),
+				mb(b.idleMemory),
+				ratio(b.peakMemory, b.idleMemory)
+			]);
+		}
 	}
 } catch (e) {
 	failed = true;

@@ -248,6 +248,7 @@ const MATRIX: Record<string, Entry> = {
 	'/api/v/[venue]/scenes/[scene=uuid]/analysis': { GET: 'member' },
 	'/api/v/[venue]/scenes/[scene=uuid]/cues': { GET: 'member', POST: 'editors' },
 	'/api/v/[venue]/shows/[show=uuid]/checks': { GET: 'assigned' },
+	'/api/v/[venue]/shows/[show=uuid]/board': { GET: 'assigned' },
 	'/api/v/[venue]/shows/[show=uuid]/live': { GET: 'assigned' },
 	'/api/v/[venue]/shows/[show=uuid]/photos': { POST: 'assigned' },
 	'/api/v/[venue]/shows/[show=uuid]/results': { POST: 'assigned' },

@@ -3,3 +3,4 @@ export * from './erfc';
 export * from './stats';
 export * from './student-t';
 export * from './calibrate';
+export * from './baseline-trend';

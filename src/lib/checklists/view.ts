@@ -20,6 +20,10 @@ export interface ResultView {
 	late: boolean;
 	/** Arrived after sign-off: a late correction, not part of what was signed. */
 	afterSignOff: boolean;
+	/** The readings were taken from the sensor's board, not typed. */
+	fromBoard: boolean;
+	/** When the board sent the present reading. */
+	boardReadAt: string | null;
 }
 
 export interface CheckView {

@@ -29,6 +29,9 @@ export interface OutboxItem {
 	outcome?: 'pass' | 'fail';
 	idleReading?: number | null;
 	presentReading?: number | null;
+	/** Both readings came from the board as taken; with the time the board sent the present one. */
+	fromBoard?: boolean;
+	boardReadAt?: string | null;
 	note: string | null;
 	photo: WaitingPhoto | null;
 	/** When the phone recorded it (ISO 8601). */
@@ -143,6 +146,8 @@ export function resultBody(item: OutboxItem) {
 		outcome: item.outcome,
 		idleReading: item.idleReading ?? null,
 		presentReading: item.presentReading ?? null,
+		fromBoard: item.fromBoard ?? false,
+		boardReadAt: item.boardReadAt ?? null,
 		note: item.note,
 		photoId: item.photo?.photoId ?? null,
 		recordedAt: item.recordedAt

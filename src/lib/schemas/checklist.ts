@@ -29,6 +29,13 @@ export const resultSchema = z.object({
 		.transform((v) => v || null),
 	/** The id the photo upload answered with; the server looks up its stored key. */
 	photoId: z.uuid({ error: 'Upload the photo again.' }).optional().nullable(),
+	/** Both readings were taken from the board, as they came (the crew member typed neither). */
+	fromBoard: z.boolean({ error: 'Say whether the readings came from the board.' }).optional(),
+	/** When the board sent the present reading (the time the board endpoint answered with). */
+	boardReadAt: z.iso
+		.datetime({ offset: true, error: 'Send the board time as an ISO 8601 date and time.' })
+		.optional()
+		.nullable(),
 	/** When the phone recorded it (ISO 8601 with offset); judged against the server's clock. */
 	recordedAt: z.iso
 		.datetime({ offset: true, error: 'Send the recorded time as an ISO 8601 date and time.' })

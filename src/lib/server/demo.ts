@@ -15,7 +15,7 @@ import { regenerateShows } from './schedule/seasons';
 import { hashPassword } from './auth/password';
 import { seedDemoProps } from './demo-props';
 import { seedLanternWalk } from './demo-lantern-walk';
-import { seedDemoCalibration } from './demo-calibration';
+import { seedDemoBaselines, seedDemoCalibration } from './demo-calibration';
 import { seedDemoScenes } from './demo-scenes';
 import { seedDemoFaults } from './demo-faults';
 import { seedDemoIncidents } from './demo-incidents';
@@ -104,6 +104,7 @@ export async function seedDemo(db: Db) {
 		await seedDemoScenes(db, venue.id, v.slug, ids.designer);
 	}
 	await seedSchedule(db, ids);
+	await seedDemoBaselines(db, DEMO_SEASON.venueSlug);
 	await seedDemoFaults(db, DEMO_SEASON.venueSlug, ids);
 	await seedDemoIncidents(
 		db,

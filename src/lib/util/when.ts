@@ -56,6 +56,14 @@ export function wallClockTime(d: Date, clock: Clock): string {
 	return clockTime(`${pad(d.getHours())}:${pad(d.getMinutes())}`, clock);
 }
 
+/** The same with seconds, for readings a board sent: '21:41:07'. */
+export function localTimeSeconds(at: Date | string | number, timeZone: string): string {
+	return formatter(
+		`seconds ${timeZone}`,
+		() => new Intl.DateTimeFormat('en-GB', { timeZone, ...TIME, second: '2-digit' })
+	).format(new Date(at));
+}
+
 const WEEKDAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'];
 // Spelt out here rather than taken from the locale data, which differs between versions
 // ('Sep' or 'Sept'), so the server and every browser write the same words.

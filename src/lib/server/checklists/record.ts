@@ -7,6 +7,7 @@ import type { Role } from '$lib/roles';
 import type { Db } from '$lib/server/db/client';
 import { checkPhotos, checkResults, checks, shows, signOffs } from '$lib/server/db/schema';
 import { showAccess } from './access';
+import { boardSent } from '$lib/server/boards/checks';
 import { notifyShow } from './live';
 
 type Result = typeof checkResults.$inferSelect;
@@ -98,6 +99,7 @@ export async function recordResult(
 	let outcome = input.outcome;
 	let idle: number | null = null;
 	let present: number | null = null;
+	let boardReadAt: Date | null = null;
 	if (check.expected.mode === 'reading') {
 		const errors: Record<string, string[]> = {};
 		if (input.idleReading === null) errors.idleReading = ['Record the idle reading.'];
@@ -107,6 +109,11 @@ export async function recordResult(
 		idle = input.idleReading;
 		present = input.presentReading;
 		outcome = evaluateSensorTest(check.expected.band, idle!, present!).outcome;
+		// "From the board" is kept only when the board really sent that present reading then.
+		if (input.fromBoard && input.boardReadAt && check.sensorId) {
+			const at = new Date(input.boardReadAt);
+			if (await boardSent(db, venueId, check.sensorId, present!, at)) boardReadAt = at;
+		}
 	} else if (!outcome) {
 		return refused(400, 'Choose pass or fail.', { outcome: ['Choose pass or fail.'] });
 	}
@@ -154,7 +161,9 @@ export async function recordResult(
 				recordedAt: when.recordedAt,
 				receivedAt,
 				clockSuspect: when.clockSuspect,
-				afterSignOff: Boolean(signed)
+				afterSignOff: Boolean(signed),
+				fromBoard: boardReadAt !== null,
+				boardReadAt
 			})
 			.onConflictDoNothing({ target: checkResults.clientId })
 			.returning();

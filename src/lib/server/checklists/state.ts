@@ -74,6 +74,8 @@ export async function loadChecklist(
 		recordedAt: r.recordedAt.toISOString(),
 		receivedAt: r.receivedAt.toISOString(),
 		clockSuspect: r.clockSuspect,
+		fromBoard: r.fromBoard,
+		boardReadAt: r.boardReadAt?.toISOString() ?? null,
 		late: arrivedLate({
 			recordedAt: r.recordedAt.toISOString(),
 			receivedAt: r.receivedAt.toISOString(),

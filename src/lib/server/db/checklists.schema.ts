@@ -100,7 +100,14 @@ export const checkResults = pgTable(
 		 */
 		clockSuspect: boolean('clock_suspect').notNull().default(false),
 		/** Arrived after the night was signed off: kept as a late correction, the sign-off stands. */
-		afterSignOff: boolean('after_sign_off').notNull().default(false)
+		afterSignOff: boolean('after_sign_off').notNull().default(false),
+		/**
+		 * Both readings came from the sensor's board, as taken (not typed), and the server found the
+		 * present reading among the readings the board sent.
+		 */
+		fromBoard: boolean('from_board').notNull().default(false),
+		/** When the board sent the present reading (the server's time), for a result from the board. */
+		boardReadAt: timestamp('board_read_at', { withTimezone: true })
 	},
 	(t) => [
 		index('check_results_check').on(t.checkId, t.recordedAt),

@@ -14,6 +14,7 @@ import { currentChecklist } from '$lib/server/checklists/copies';
 import { runSheetDelivery } from '$lib/server/runsheets/send';
 import { listFaults } from '$lib/server/faults/records';
 import { UNHEARD_MINUTES, quietBoards } from '$lib/server/boards/live';
+import { baselineAlerts, type BaselineAlert } from '$lib/server/boards/baselines';
 import { localDateTime } from '$lib/util/when';
 import { openIncidentCount } from '$lib/server/incidents/records';
 import type { PageServerLoad } from './$types';
@@ -34,7 +35,9 @@ export const load: PageServerLoad = async (event) => {
 		quietBoards(db, venue.id)
 	]);
 	let next = null;
+	let drifting: BaselineAlert[] = [];
 	if (show) {
+		if (show.status === 'scheduled') drifting = await baselineAlerts(db, venue.id, show);
 		const summary = async () => {
 			const copy = await currentChecklist(db, venue, show.id);
 			return {
@@ -111,6 +114,14 @@ export const load: PageServerLoad = async (event) => {
 				lastHeard: b.lastAt ? localDateTime(b.lastAt, venue.timeZone, venue.clock) : null
 			}))
 		},
+		/** Sensors whose idle baseline tonight is outside its band or heading there. */
+		drifting: drifting.map((d) => ({
+			sensorId: d.sensorId,
+			propId: d.propId,
+			name: `${d.propName}: ${d.sensorName}`,
+			state: d.state,
+			words: d.words
+		})),
 		openFaults: openFaults.map((f) => ({
 			id: f.id,
 			propId: f.propId,

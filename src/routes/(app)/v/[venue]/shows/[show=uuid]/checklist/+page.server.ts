@@ -4,6 +4,7 @@ import { db } from '$lib/server/db';
 import { showAccess } from '$lib/server/checklists/access';
 import { currentChecklist } from '$lib/server/checklists/copies';
 import { hazardsOf } from '$lib/checklists/view';
+import { baselineAlerts } from '$lib/server/boards/baselines';
 import type { PageServerLoad } from './$types';
 
 /**
@@ -17,7 +18,10 @@ export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const access = await showAccess(db, venue, event.locals.person!.id, event.params.show);
 	if (!access.ok) error(access.status, access.message);
-	const copy = await currentChecklist(db, venue, access.show.id);
+	const [copy, alerts] = await Promise.all([
+		currentChecklist(db, venue, access.show.id),
+		baselineAlerts(db, venue.id, access.show)
+	]);
 	const view = copy.view;
 	// The rooms of the person's posts tonight; none (every room) for a safety post or no room post.
 	const posts = access.posts;
@@ -50,6 +54,8 @@ export const load: PageServerLoad = async (event) => {
 		roomCounts: partial ? copy.progress : [],
 		counts: copy.counts,
 		hazards: hazardsOf(view.checks),
-		manages: access.manages
+		manages: access.manages,
+		/** By check key: tonight's idle baseline is outside its band or heading there. */
+		baselineNotes: Object.fromEntries(alerts.map((a) => [`sensor:${a.sensorId}`, a.words]))
 	};
 };

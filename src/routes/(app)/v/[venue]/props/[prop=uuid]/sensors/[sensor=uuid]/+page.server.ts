@@ -19,7 +19,17 @@ import { env } from '$env/dynamic/private';
 import { objectStore } from '$lib/server/objects';
 import { discardObjects } from '$lib/server/object-cleanup';
 import { removeCapture } from '$lib/server/props/removal';
+import {
+	BASELINE_WINDOW_WORDS,
+	baselineWords,
+	judgeNights,
+	nightlyBaselines
+} from '$lib/server/boards/baselines';
+import { figure } from '$lib/quantity';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
+
+/** The baseline history shows this many of the latest nights with readings: a season or two. */
+const HISTORY_NIGHTS = 90;
 
 async function find(event: RequestEvent | Parameters<PageServerLoad>[0], venueId: string) {
 	const prop = await getProp(db, venueId, event.params.prop);
@@ -41,7 +51,7 @@ async function find(event: RequestEvent | Parameters<PageServerLoad>[0], venueId
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const { prop, sensor } = await find(event, venue.id);
-	const [controller, list, keys, signed] = await Promise.all([
+	const [controller, list, keys, signed, nights] = await Promise.all([
 		getController(db, venue.id, prop.controllerId),
 		db
 			.select()
@@ -61,8 +71,11 @@ export const load: PageServerLoad = async (event) => {
 					)
 					.limit(1)
 			: [],
-		lastSignedNight(db, venue.id, prop.id)
+		lastSignedNight(db, venue.id, prop.id),
+		nightlyBaselines(db, venue.id, [sensor.id], {}).then((all) => all.slice(-HISTORY_NIGHTS))
 	]);
+	const last = nights.at(-1);
+	const judged = last ? judgeNights(nights, sensor.id, last.showId, sensor.calibration) : null;
 	const wanted = event.url.searchParams.get('capture');
 	const shown = list.find((c) => c.id === wanted) ?? list[0] ?? null;
 	return {
@@ -94,6 +107,20 @@ export const load: PageServerLoad = async (event) => {
 		// The live readings' endpoint serves designers, owners and show managers.
 		canSeeLive: venue.role !== 'crew',
 		boardHasKey: keys.length > 0,
+		baselines: {
+			window: BASELINE_WINDOW_WORDS,
+			nights: nights.map((n) => ({
+				day: localDay(n.date),
+				date: n.date,
+				baseline: n.baseline,
+				shown: figure(n.baseline),
+				readings: n.readings
+			})),
+			/** What the latest night's baseline says against the band; null when nothing to say. */
+			words: judged ? baselineWords(judged, sensor.calibration) : null,
+			state: judged?.state ?? 'unknown',
+			lastDay: last ? localDay(last.date) : null
+		},
 		timeZone: venue.timeZone
 	};
 };
