@@ -1,7 +1,7 @@
 import { SAFE_STATE_LABELS, type SafeState } from '../schemas/prop-words';
 import type { ReadingBand } from './evaluate';
 
-export const CHECK_KINDS = ['sensor_test', 'output_test', 'safety', 'retest'] as const;
+export const CHECK_KINDS = ['sensor_test', 'output_test', 'safety', 'retest', 'maintenance'] as const;
 export type CheckKind = (typeof CHECK_KINDS)[number];
 
 /** How a check is worked: two readings against a band, or a plain pass or fail. */

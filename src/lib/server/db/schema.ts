@@ -9,3 +9,4 @@ export * from './checklists.schema';
 export * from './boards.schema';
 export * from './faults.schema';
 export * from './changes.schema';
+export * from './wear.schema';
