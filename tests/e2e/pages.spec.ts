@@ -112,6 +112,12 @@ const pages: {
 		},
 		name: 'stand-down'
 	},
+	{
+		role: 'manager',
+		path: `${TRAIL}/seasons`,
+		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027', 'Close-of-night checklist'],
+		name: 'close-of-night'
+	},
 	{ role: 'manager', path: `${TRAIL}/safety`, name: 'safety-items' },
 	{
 		role: 'crew',

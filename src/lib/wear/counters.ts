@@ -79,7 +79,11 @@ export function perGroup(outputId: string, scenes: WearScene[]): PerRun {
 }
 
 /** Groups through on a night: entered directly, or guests over guests per group rounded up. */
-export function groupsOf(count: { guests: number; groups: number | null; groupSize: number | null }) {
+export function groupsOf(count: {
+	guests: number;
+	groups: number | null;
+	groupSize: number | null;
+}) {
 	if (count.groups !== null) return count.groups;
 	if (count.groupSize && count.groupSize > 0) return Math.ceil(count.guests / count.groupSize);
 	return 0;

@@ -13,6 +13,7 @@ import { localTime } from '$lib/util/when';
 import { currentChecklist } from '$lib/server/checklists/copies';
 import { runSheetDelivery } from '$lib/server/runsheets/send';
 import { listFaults } from '$lib/server/faults/records';
+import { maintenanceWorkItems } from '$lib/server/wear/records';
 import { UNHEARD_MINUTES, quietBoards } from '$lib/server/boards/live';
 import { localDateTime } from '$lib/util/when';
 import type { PageServerLoad } from './$types';
@@ -20,7 +21,7 @@ import type { PageServerLoad } from './$types';
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const planner = venue.role === 'owner' || venue.role === 'show_manager';
-	const [[details], roomList, [members], show, openFaults, quiet] = await Promise.all([
+	const [[details], roomList, [members], show, openFaults, quiet, maintenance] = await Promise.all([
 		db.select().from(venues).where(eq(venues.id, venue.id)),
 		db
 			.select({ id: rooms.id, name: rooms.name })
@@ -30,7 +31,8 @@ export const load: PageServerLoad = async (event) => {
 		db.select({ n: count() }).from(memberships).where(eq(memberships.venueId, venue.id)),
 		nextShow(db, venue.id),
 		listFaults(db, venue.id, { openOnly: true }),
-		quietBoards(db, venue.id)
+		quietBoards(db, venue.id),
+		maintenanceWorkItems(db, venue.id)
 	]);
 	let next = null;
 	if (show) {
@@ -107,6 +109,7 @@ export const load: PageServerLoad = async (event) => {
 				lastHeard: b.lastAt ? localDateTime(b.lastAt, venue.timeZone, venue.clock) : null
 			}))
 		},
+		maintenance,
 		openFaults: openFaults.map((f) => ({
 			id: f.id,
 			propId: f.propId,

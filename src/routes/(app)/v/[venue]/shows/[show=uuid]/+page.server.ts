@@ -37,6 +37,10 @@ import {
 } from '$lib/schemas/schedule';
 import { localTime } from '$lib/util/when';
 import { noticeRunSheetChanges, runSheetDelivery } from '$lib/server/runsheets/send';
+import { countHistory } from '$lib/server/wear/records';
+import { guestCountSchema } from '$lib/schemas/wear';
+import { groupsOf } from '$lib/wear/counters';
+import { guestCounts } from '$lib/server/db/schema';
 import type { Actions, PageServerLoad } from './$types';
 
 /** Latest results the show page lists. */
@@ -112,6 +116,7 @@ export const load: PageServerLoad = async (event) => {
 		showConflicts(db, venue.id, show.id, { show }),
 		planner ? runSheetDelivery(db, venue.id, show.id) : null
 	]);
+	const countRows = await countHistory(db, venue.id, show.id);
 	const checklist = copy.view;
 	const roomNames = new Map(roomRows.map((r) => [r.id, r.name]));
 	const roomName = (id: string | null) => (id ? (roomNames.get(id) ?? null) : null);
@@ -170,7 +175,13 @@ export const load: PageServerLoad = async (event) => {
 		conflicts,
 		crewProblems: checklist.signOff ? [] : crewProblemsOf(conflicts),
 		canEdit: planner,
-		runSheets
+		runSheets,
+		// Newest first; the first is the night's count, the rest are what it corrected.
+		guestCounts: countRows.slice(0, 6).map((c) => ({
+			...c,
+			groupsWorked: groupsOf(c),
+			at: c.at.toISOString()
+		}))
 	};
 };
 
@@ -520,5 +531,24 @@ export const actions: Actions = {
 				unacknowledged: done.unacknowledged?.map((p) => p.key) ?? []
 			});
 		return { action: 'signOff', saved: true };
+	},
+	guests: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const show = await findShow(venue.id, event.params.show);
+		if (!show) return fail(404, { action: 'guests', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, guestCountSchema);
+		if (!parsed.ok)
+			return fail(400, { action: 'guests', values: keep(parsed.raw), errors: parsed.errors });
+		const { guests, groupsBy, groupValue } = parsed.data;
+		// Append-only: a correction is a new row, and the latest row is the night's count.
+		await db.insert(guestCounts).values({
+			venueId: venue.id,
+			showId: show.id,
+			guests,
+			groupSize: groupsBy === 'size' ? groupValue : null,
+			groups: groupsBy === 'count' ? groupValue : null,
+			personId: event.locals.person!.id
+		});
+		return { action: 'guests', saved: true };
 	}
 };
