@@ -7,7 +7,7 @@ export const guestCountSchema = z
 	.object({
 		guests: num('Guests', { int: true, min: 0, max: 1_000_000 }),
 		groupsBy: z.enum(['size', 'count'], { error: 'Say how the groups are given.' }),
-		groupValue: num('The group figure', { int: true, min: 1, max: 1_000_000 })
+		groupValue: num('That figure', { int: true, min: 1, max: 1_000_000 })
 	})
 	.superRefine((v, ctx) => {
 		if (v.groupsBy === 'count' && v.groupValue > Math.max(v.guests, 1))
