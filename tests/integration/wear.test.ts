@@ -243,6 +243,11 @@ describe('wear counters over a hand-worked season', () => {
 		await expect(
 			db.execute(sql`delete from wear_settings where output_id = ${s.valve.id}`)
 		).rejects.toMatchObject(refused);
+		// A night removed takes its counts with it.
+		await db.delete(shows).where(eq(shows.id, s.nights[1].id));
+		expect(
+			await db.select().from(guestCounts).where(eq(guestCounts.showId, s.nights[1].id))
+		).toEqual([]);
 		// Crew and show managers cannot set a rated life; crew cannot enter counts.
 		const crewWear = await outputAction(
 			s,
@@ -313,6 +318,12 @@ describe('wear counters over a hand-worked season', () => {
 		await expect(
 			db.execute(sql`update maintenance_records set note = 'x' where output_id = ${s.mist.id}`)
 		).rejects.toMatchObject(refused);
+
+		// An output removed takes its settings and maintenance records with it.
+		await db.delete(outputs).where(eq(outputs.id, s.valve.id));
+		expect(
+			await db.select().from(maintenanceRecords).where(eq(maintenanceRecords.outputId, s.valve.id))
+		).toEqual([]);
 
 		// Tonight lists what is still due as a work item (nothing now).
 		const tonight = await import('../../src/routes/(app)/v/[venue]/+page.server');
