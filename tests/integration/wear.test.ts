@@ -368,7 +368,7 @@ describe('close-of-night checklist', () => {
 		};
 		expect(body.lines.map((l) => [l.label, l.room])).toEqual([
 			['Well: Flash strobe off', 'Well room'],
-			['Drop: Mist fog fluid drained or refilled', 'Barn'],
+			['Drop: fog fluid in Mist drained or refilled', 'Barn'],
 			['Drop: air lines bled', 'Barn'],
 			['Incidents and show stops written up', null],
 			['Guest counts entered', null],

@@ -56,7 +56,7 @@ export function generateCloseChecklist(input: CloseInput): CloseSpec[] {
 				propId: prop.id,
 				outputId: o.id,
 				roomId: prop.roomId,
-				label: `${prop.name}: ${o.name} fog fluid drained or refilled`,
+				label: `${prop.name}: fog fluid in ${o.name} drained or refilled`,
 				detail:
 					"Machine off and cool; fluid topped up for tomorrow or drained for a dark night, to the maker's instructions.",
 				sortKey: at(n++)
