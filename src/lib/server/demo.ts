@@ -18,6 +18,7 @@ import { seedLanternWalk } from './demo-lantern-walk';
 import { seedDemoCalibration } from './demo-calibration';
 import { seedDemoScenes } from './demo-scenes';
 import { seedDemoFaults } from './demo-faults';
+import { seedDemoWear } from './demo-wear';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
 export const DEMO_PASSWORD = 'lantern-demo-2026';
@@ -104,6 +105,7 @@ export async function seedDemo(db: Db) {
 	}
 	await seedSchedule(db, ids);
 	await seedDemoFaults(db, DEMO_SEASON.venueSlug, ids);
+	await seedDemoWear(db, DEMO_SEASON.venueSlug, ids.designer);
 	return ids;
 }
 
