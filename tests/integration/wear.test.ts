@@ -11,7 +11,9 @@ import {
 	outputs,
 	sceneCues,
 	scenes,
-	shows
+	showSceneExclusions,
+	shows,
+	standDowns
 } from '../../src/lib/server/db/schema';
 import { outputWear } from '../../src/lib/server/wear/records';
 import { loadClose, syncClose } from '../../src/lib/server/checklists/close';
@@ -209,6 +211,26 @@ describe('wear counters over a hand-worked season', () => {
 		// 15 flashes per group × 136 groups = 2,040 operations, under the 10,000 interval.
 		expect(flash.total).toBe(2040);
 		expect(flash.due).toBe(false);
+
+		// The Drop stood down on night 1 holds its outputs safe: 272 − 80 = 192 cycles, and fog
+		// (630 + 714) s = 1,344 s.
+		await db.insert(standDowns).values({
+			venueId: s.venue.id,
+			showId: s.nights[0].id,
+			propId: s.drop.id,
+			reason: 'Air leak'
+		});
+		expect((await wearOf(s, s.valve.id)).total).toBe(192);
+		expect((await wearOf(s, s.mist.id)).total).toBeCloseTo(1344 / 3600, 10);
+		// The Glow scene left out of night 2: 2,040 − 45 × 15 = 1,365 flashes.
+		const [glow] = await db
+			.select()
+			.from(scenes)
+			.where(and(eq(scenes.venueId, s.venue.id), eq(scenes.name, 'Glow')));
+		await db
+			.insert(showSceneExclusions)
+			.values({ venueId: s.venue.id, showId: s.nights[1].id, sceneId: glow.id });
+		expect((await wearOf(s, s.flash.id)).total).toBe(1365);
 	});
 
 	it('keeps every count and correction, refuses a count in the wrong words, and refuses edits', async () => {

@@ -14,6 +14,7 @@ import type { CueAction } from '../scenes/types';
  *   actuations per night = triggers per group × groups.
  * - Fog counts hours of running instead: the durations of its pulse, fade and strobe cues, and a set
  *   cue above zero runs until the scene ends; hours per night = that time per run × groups.
+ * - A prop stood down for the night holds its outputs in the safe state: they count nothing.
  */
 
 export const WEAR_KINDS = ['operations', 'seal_cycles', 'fog_hours'] as const;
@@ -96,6 +97,8 @@ export interface CountedNight {
 	groups: number;
 	/** The scenes that ran that night. */
 	scenes: WearScene[];
+	/** Outputs of props stood down that night (held in their safe state). */
+	idleOutputs?: string[];
 }
 
 export interface WearSetting {
@@ -140,7 +143,9 @@ export function wearCounter(
 	let since = 0;
 	const rows: WearCounter['nights'] = [];
 	for (const n of [...nights].sort((a, b) => a.endsAt.getTime() - b.endsAt.getTime())) {
-		const run = perGroup(outputId, n.scenes);
+		const run = n.idleOutputs?.includes(outputId)
+			? { actuations: 0, onMs: 0 }
+			: perGroup(outputId, n.scenes);
 		const amount = nightAmount(setting.kind, run, n.groups);
 		total += amount;
 		if (!lastMaintenance || n.endsAt > lastMaintenance) since += amount;

@@ -13,6 +13,7 @@ import {
 	scenes,
 	showSceneExclusions,
 	shows,
+	standDowns,
 	users,
 	wearSettings
 } from '$lib/server/db/schema';
@@ -25,6 +26,7 @@ import {
 	type WearScene
 } from '$lib/wear/counters';
 import { figure } from '$lib/quantity';
+import { notRestored } from '$lib/server/scenes/for-show';
 
 type Reader = Pick<Db, 'select'>;
 
@@ -97,7 +99,7 @@ export async function countedNights(db: Reader, venueId: string): Promise<Counte
 	const counts = await latestCounts(db, venueId);
 	if (counts.size === 0) return [];
 	const ids = [...counts.keys()];
-	const [showRows, excluded, all] = await Promise.all([
+	const [showRows, excluded, all, down] = await Promise.all([
 		db
 			.select({ id: shows.id, doorsClose: shows.doorsClose })
 			.from(shows)
@@ -108,7 +110,12 @@ export async function countedNights(db: Reader, venueId: string): Promise<Counte
 			.where(
 				and(eq(showSceneExclusions.venueId, venueId), inArray(showSceneExclusions.showId, ids))
 			),
-		runningScenes(db, venueId)
+		runningScenes(db, venueId),
+		db
+			.select({ showId: standDowns.showId, outputId: outputs.id })
+			.from(standDowns)
+			.innerJoin(outputs, eq(outputs.propId, standDowns.propId))
+			.where(and(eq(standDowns.venueId, venueId), inArray(standDowns.showId, ids), notRestored()))
 	]);
 	return showRows.map((s) => {
 		const out = new Set(excluded.filter((e) => e.showId === s.id).map((e) => e.sceneId));
@@ -116,7 +123,8 @@ export async function countedNights(db: Reader, venueId: string): Promise<Counte
 			showId: s.id,
 			endsAt: s.doorsClose,
 			groups: groupsOf(counts.get(s.id)!),
-			scenes: all.filter((sc) => !out.has(sc.id))
+			scenes: all.filter((sc) => !out.has(sc.id)),
+			idleOutputs: down.filter((d) => d.showId === s.id).map((d) => d.outputId)
 		};
 	});
 }
