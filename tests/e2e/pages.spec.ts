@@ -124,6 +124,12 @@ const pages: {
 		follow: ['Checklist for Fri 1 Oct 2027', 'Report an incident'],
 		name: 'crew-incidents'
 	},
+	{
+		role: 'manager',
+		path: `${TRAIL}/seasons`,
+		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027', 'Close-of-night checklist'],
+		name: 'close-of-night'
+	},
 	{ role: 'manager', path: `${TRAIL}/safety`, name: 'safety-items' },
 	{
 		role: 'crew',

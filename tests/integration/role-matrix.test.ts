@@ -168,7 +168,7 @@ const MATRIX: Record<string, Entry> = {
 	'/(app)/v/[venue]/props/[prop=uuid]/files/[file=uuid]': { GET: 'member' },
 	'/(app)/v/[venue]/props/[prop=uuid]/outputs/[output=uuid]': {
 		load: 'member',
-		actions: { save: 'editors', curve: 'editors' }
+		actions: { save: 'editors', curve: 'editors', wear: 'editors', maintained: 'editors' }
 	},
 	'/(app)/v/[venue]/props/[prop=uuid]/outputs/[output=uuid]/level-table.csv': { GET: 'member' },
 	'/(app)/v/[venue]/props/[prop=uuid]/outputs/[output=uuid]/level-table.h': { GET: 'member' },
@@ -207,8 +207,13 @@ const MATRIX: Record<string, Entry> = {
 			exclude: 'planners',
 			include: 'planners',
 			restore: 'planners',
-			signOff: 'planners'
+			signOff: 'planners',
+			guests: 'planners'
 		}
+	},
+	'/(app)/v/[venue]/shows/[show=uuid]/close': {
+		load: 'assigned',
+		actions: { tick: 'assigned', sign: 'planners' }
 	},
 	'/(app)/v/[venue]/shows/[show=uuid]/stand-down': {
 		load: 'planners',

@@ -1,7 +1,13 @@
 import { SAFE_STATE_LABELS, type SafeState } from '../schemas/prop-words';
 import type { ReadingBand } from './evaluate';
 
-export const CHECK_KINDS = ['sensor_test', 'output_test', 'safety', 'retest'] as const;
+export const CHECK_KINDS = [
+	'sensor_test',
+	'output_test',
+	'safety',
+	'retest',
+	'maintenance'
+] as const;
 export type CheckKind = (typeof CHECK_KINDS)[number];
 
 /** How a check is worked: two readings against a band, or a plain pass or fail. */
@@ -52,6 +58,11 @@ export interface GenInput {
 	 * first; each prop with any gets one required re-test line.
 	 */
 	retests?: { propId: string; changeId: string; line: string }[];
+	/**
+	 * Outputs whose wear counter has passed its maintenance interval, keyed by what they are due
+	 * since (the last maintenance record), so a new due gets a fresh line.
+	 */
+	maintenance?: { propId: string; outputId: string; since: string; line: string }[];
 }
 
 export interface CheckSpec {
@@ -134,6 +145,24 @@ export function generateChecklist(input: GenInput): CheckSpec[] {
 	const sensorsOf = byProp(input.sensors);
 	const outputsOf = byProp(input.outputs);
 	const retestsOf = byProp(input.retests ?? []);
+	const maintenanceOf = byProp(input.maintenance ?? []);
+	const maintenanceSpec = (
+		m: NonNullable<GenInput['maintenance']>[number],
+		roomId: string | null,
+		sortKey: string
+	): CheckSpec => ({
+		...base,
+		key: `maintenance:${m.outputId}:${m.since}`,
+		kind: 'maintenance',
+		propId: m.propId,
+		outputId: m.outputId,
+		roomId,
+		label: m.line,
+		detail:
+			'Its wear counter has passed its maintenance interval: do the maintenance, record it on the output page, then mark this line.',
+		expected: { mode: 'pass_fail' },
+		sortKey
+	});
 	props.forEach((prop, p) => {
 		const at = (n: number) => `${pad(roomOrder(prop.roomId))}|${pad(p)}|${pad(n)}`;
 		let n = 0;
@@ -235,7 +264,14 @@ export function generateChecklist(input: GenInput): CheckSpec[] {
 				sortKey: at(n++)
 			});
 		}
+		for (const m of maintenanceOf.get(prop.id) ?? [])
+			specs.push(maintenanceSpec(m, prop.roomId, at(n++)));
 	});
+	// Due maintenance on a prop not in tonight's scenes still asks once, with the venue's lines.
+	const inNight = new Set(input.props.map((p) => p.id));
+	(input.maintenance ?? [])
+		.filter((m) => !inNight.has(m.propId))
+		.forEach((m, i) => specs.push(maintenanceSpec(m, null, `0000|2|${pad(i)}`)));
 
 	for (const roomId of strobeRooms) {
 		const room = input.rooms.find((r) => r.id === roomId);

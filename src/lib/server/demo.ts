@@ -19,6 +19,7 @@ import { seedDemoBaselines, seedDemoCalibration } from './demo-calibration';
 import { seedDemoScenes } from './demo-scenes';
 import { seedDemoFaults } from './demo-faults';
 import { seedDemoIncidents } from './demo-incidents';
+import { seedDemoWear } from './demo-wear';
 
 // Gloaming's demo: two invented venues and four invented people, one per role.
 export const DEMO_PASSWORD = 'lantern-demo-2026';
@@ -113,6 +114,7 @@ export async function seedDemo(db: Db) {
 		DEMO_SEASON.openingNight,
 		ids
 	);
+	await seedDemoWear(db, DEMO_SEASON.venueSlug, ids.designer);
 	return ids;
 }
 

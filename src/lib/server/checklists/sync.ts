@@ -7,6 +7,8 @@ import { loadNight } from '$lib/server/scenes/night';
 import { luminanceThroughCurves } from '$lib/server/scenes/model';
 import { lockShow } from './record';
 import { openChanges } from '$lib/server/changes/records';
+import { dueMaintenance } from '$lib/server/wear/records';
+import { figure } from '$lib/quantity';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type Writer = Db | Tx;
@@ -75,7 +77,10 @@ export async function checklistSpecs(
 			.where(and(eq(shows.id, showId), eq(shows.venueId, venueId)))
 			.then((r) => r[0])
 	]);
-	const changes = show ? await openChanges(db, venueId, show) : [];
+	const [changes, due] = await Promise.all([
+		show ? openChanges(db, venueId, show) : [],
+		dueMaintenance(db, venueId)
+	]);
 	const strobeSceneRooms: (string | null)[] = [];
 	for (const s of night.scenes) {
 		const findings = checkScene(s.scene, s.outputs, {
@@ -115,8 +120,24 @@ export async function checklistSpecs(
 			propId: c.propId,
 			changeId: c.id,
 			line: `${c.partName}: ${c.summary}, because “${c.reason.replace(/\s+/g, ' ')}”.`
+		})),
+		maintenance: due.map((d) => ({
+			propId: d.propId,
+			outputId: d.outputId,
+			since: d.since,
+			line: maintenanceLine(d)
 		}))
 	});
+}
+
+/** "Drop: maintenance due (12,000 of 10,000 cycles since the last)". */
+export function maintenanceLine(d: {
+	propName: string;
+	outputName: string;
+	counter: { sinceMaintenance: number; interval: number; unit: string };
+}) {
+	const c = d.counter;
+	return `${d.propName}: ${d.outputName} maintenance due (${figure(c.sinceMaintenance, 3)} of ${figure(c.interval, 3)} ${c.unit} since the last)`;
 }
 
 type StoredCheck = typeof checks.$inferSelect;

@@ -10,3 +10,4 @@ export * from './boards.schema';
 export * from './faults.schema';
 export * from './changes.schema';
 export * from './incidents.schema';
+export * from './wear.schema';

@@ -13,6 +13,7 @@ import { localTime } from '$lib/util/when';
 import { currentChecklist } from '$lib/server/checklists/copies';
 import { runSheetDelivery } from '$lib/server/runsheets/send';
 import { listFaults } from '$lib/server/faults/records';
+import { maintenanceWorkItems } from '$lib/server/wear/records';
 import { UNHEARD_MINUTES, quietBoards } from '$lib/server/boards/live';
 import { baselineAlerts, type BaselineAlert } from '$lib/server/boards/baselines';
 import { localDateTime } from '$lib/util/when';
@@ -22,7 +23,7 @@ import type { PageServerLoad } from './$types';
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const planner = venue.role === 'owner' || venue.role === 'show_manager';
-	const [[details], roomList, [members], show, openFaults, quiet] = await Promise.all([
+	const [[details], roomList, [members], show, openFaults, quiet, maintenance] = await Promise.all([
 		db.select().from(venues).where(eq(venues.id, venue.id)),
 		db
 			.select({ id: rooms.id, name: rooms.name })
@@ -32,7 +33,8 @@ export const load: PageServerLoad = async (event) => {
 		db.select({ n: count() }).from(memberships).where(eq(memberships.venueId, venue.id)),
 		nextShow(db, venue.id),
 		listFaults(db, venue.id, { openOnly: true }),
-		quietBoards(db, venue.id)
+		quietBoards(db, venue.id),
+		maintenanceWorkItems(db, venue.id)
 	]);
 	let next = null;
 	let drifting: BaselineAlert[] = [];
@@ -122,6 +124,7 @@ export const load: PageServerLoad = async (event) => {
 			state: d.state,
 			words: d.words
 		})),
+		maintenance,
 		openFaults: openFaults.map((f) => ({
 			id: f.id,
 			propId: f.propId,

@@ -16,6 +16,7 @@ import { outputValues, propChildren, sensorValues, touchProp } from '$lib/server
 import { hazardsOf } from '$lib/props/output-maths';
 import { scenesUsingOutputs } from '$lib/server/scenes/records';
 import { listFaults } from '$lib/server/faults/records';
+import { maintenanceWorkItems } from '$lib/server/wear/records';
 import { propSchema } from '$lib/schemas/prop';
 import { sensorSchema } from '$lib/schemas/sensor';
 import { outputSchema } from '$lib/schemas/output';
@@ -33,11 +34,18 @@ export const load: PageServerLoad = async (event) => {
 	]);
 	const controller = controllers.find((c) => c.id === prop.controllerId) ?? null;
 	const hazards = [...new Set(children.outputs.flatMap((o) => hazardsOf(o)))];
-	const usedIn = await scenesUsingOutputs(
-		db,
-		venue.id,
-		children.outputs.map((o) => o.id)
-	);
+	const [usedIn, maintenance] = await Promise.all([
+		scenesUsingOutputs(
+			db,
+			venue.id,
+			children.outputs.map((o) => o.id)
+		),
+		maintenanceWorkItems(
+			db,
+			venue.id,
+			children.outputs.map((o) => o.id)
+		)
+	]);
 	return {
 		prop,
 		...children,
@@ -50,7 +58,8 @@ export const load: PageServerLoad = async (event) => {
 		controller,
 		roomName: rooms.find((r) => r.id === prop.roomId)?.name ?? null,
 		canEdit: EDITORS.includes(venue.role),
-		openFaults: openFaults.map(({ events: _events, ...f }) => f)
+		openFaults: openFaults.map(({ events: _events, ...f }) => f),
+		maintenance
 	};
 };
 

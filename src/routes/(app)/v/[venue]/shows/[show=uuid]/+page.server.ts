@@ -38,6 +38,10 @@ import {
 import { incidentCounts } from '$lib/server/incidents/records';
 import { localTime } from '$lib/util/when';
 import { noticeRunSheetChanges, runSheetDelivery } from '$lib/server/runsheets/send';
+import { countHistory } from '$lib/server/wear/records';
+import { guestCountSchema } from '$lib/schemas/wear';
+import { groupsOf } from '$lib/wear/counters';
+import { guestCounts } from '$lib/server/db/schema';
 import type { Actions, PageServerLoad } from './$types';
 
 /** Latest results the show page lists. */
@@ -113,6 +117,7 @@ export const load: PageServerLoad = async (event) => {
 		showConflicts(db, venue.id, show.id, { show }),
 		planner ? runSheetDelivery(db, venue.id, show.id) : null
 	]);
+	const countRows = await countHistory(db, venue.id, show.id);
 	const checklist = copy.view;
 	// The night's incidents page is for planners and whoever is on the night.
 	const onNight = planner || here.some((a) => a.personId === person.id);
@@ -177,7 +182,13 @@ export const load: PageServerLoad = async (event) => {
 		crewProblems: checklist.signOff ? [] : crewProblemsOf(conflicts),
 		canEdit: planner,
 		runSheets,
-		incidents: incidentCount
+		incidents: incidentCount,
+		// Newest first; the first is the night's count, the rest are what it corrected.
+		guestCounts: countRows.slice(0, 6).map((c) => ({
+			...c,
+			groupsWorked: groupsOf(c),
+			at: c.at.toISOString()
+		}))
 	};
 };
 
@@ -527,5 +538,24 @@ export const actions: Actions = {
 				unacknowledged: done.unacknowledged?.map((p) => p.key) ?? []
 			});
 		return { action: 'signOff', saved: true };
+	},
+	guests: async (event) => {
+		const venue = requireRole(event, ...PLANNERS);
+		const show = await findShow(venue.id, event.params.show);
+		if (!show) return fail(404, { action: 'guests', message: 'That show no longer exists.' });
+		const parsed = await parseForm(event.request, guestCountSchema);
+		if (!parsed.ok)
+			return fail(400, { action: 'guests', values: keep(parsed.raw), errors: parsed.errors });
+		const { guests, groupsBy, groupValue } = parsed.data;
+		// Append-only: a correction is a new row, and the latest row is the night's count.
+		await db.insert(guestCounts).values({
+			venueId: venue.id,
+			showId: show.id,
+			guests,
+			groupSize: groupsBy === 'size' ? groupValue : null,
+			groups: groupsBy === 'count' ? groupValue : null,
+			personId: event.locals.person!.id
+		});
+		return { action: 'guests', saved: true };
 	}
 };

@@ -11,13 +11,31 @@ import { curveSchema, outputSchema } from '$lib/schemas/output';
 import { checkReason, lastSignedNight, recordChange } from '$lib/server/changes/records';
 import { localDay } from '$lib/util/when';
 import { curveDifferences, outputDifferences, outputState } from '$lib/props/changes';
+import { maintenanceRecords, wearSettings } from '$lib/server/db/schema';
+import { maintenanceHistory, outputWear, wearSettingOf } from '$lib/server/wear/records';
+import { parseForm, keep } from '$lib/server/forms';
+import { maintenanceSchema, wearSettingSchema } from '$lib/schemas/wear';
+import { wearKindFor } from '$lib/wear/counters';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const found = await findOutput(db, venue.id, event.params.prop, event.params.output);
-	const signed = await lastSignedNight(db, venue.id, found.prop.id);
+	const [signed, setting, [wear], maintenance] = await Promise.all([
+		lastSignedNight(db, venue.id, found.prop.id),
+		wearSettingOf(db, venue.id, found.output.id),
+		outputWear(db, venue.id, [found.output.id]),
+		maintenanceHistory(db, venue.id, found.output.id)
+	]);
 	return {
+		wear: {
+			setting: setting
+				? { kind: setting.kind, ratedLife: setting.ratedLife, interval: setting.interval }
+				: null,
+			suggestedKind: wearKindFor(found.output.relayKind),
+			counter: wear?.counter ?? null,
+			maintenance: maintenance.slice(0, 10).map((m) => ({ ...m, at: m.at.toISOString() }))
+		},
 		...found,
 		formValues: flatValues(
 			{
@@ -127,5 +145,34 @@ export const actions: Actions = {
 		});
 		await touchProp(db, venue.id, prop.id);
 		return { action: 'curve', saved: true };
+	},
+	wear: async (event) => {
+		const venue = requireRole(event, ...EDITORS);
+		const { output } = await findOutput(db, venue.id, event.params.prop, event.params.output);
+		const parsed = await parseForm(event.request, wearSettingSchema);
+		if (!parsed.ok)
+			return fail(400, { action: 'wear', values: keep(parsed.raw), errors: parsed.errors });
+		// Append-only: the latest setting counts.
+		await db.insert(wearSettings).values({
+			venueId: venue.id,
+			outputId: output.id,
+			...parsed.data,
+			personId: event.locals.person!.id
+		});
+		return { action: 'wear', saved: true };
+	},
+	maintained: async (event) => {
+		const venue = requireRole(event, ...EDITORS);
+		const { output } = await findOutput(db, venue.id, event.params.prop, event.params.output);
+		const parsed = await parseForm(event.request, maintenanceSchema);
+		if (!parsed.ok)
+			return fail(400, { action: 'maintained', values: keep(parsed.raw), errors: parsed.errors });
+		await db.insert(maintenanceRecords).values({
+			venueId: venue.id,
+			outputId: output.id,
+			note: parsed.data.note,
+			personId: event.locals.person!.id
+		});
+		return { action: 'maintained', saved: true };
 	}
 };
