@@ -348,25 +348,26 @@ export function sceneTimesRule({ scene }: RuleContext): Finding[] {
 export function cuesRule({ scene, byId, name }: RuleContext): Finding[] {
 	const found: Finding[] = [];
 	for (const cue of scene.cues) {
-		const ids = [[cue.id], [cue.outputId]] as const;
+		const onCue = (code: FindingCode, severity: Severity, message: string) =>
+			finding(code, severity, message, [cue.id], [cue.outputId]);
 		if (!byId.has(cue.outputId)) {
 			const message = `A cue uses an output that does not exist (${cue.outputId}).`;
-			found.push(finding('unknown-output', 'error', message, ...ids));
+			found.push(onCue('unknown-output', 'error', message));
 			continue;
 		}
 		const problem = cueProblem(cue);
 		if (problem) {
 			const message = `A cue on ${name(cue.outputId)} cannot run: ${problem}.`;
-			found.push(finding('cue-invalid', 'error', message, ...ids));
+			found.push(onCue('cue-invalid', 'error', message));
 			continue;
 		}
 		if (cueEndMs(cue) > scene.lengthMs) {
 			const message = `${capital(describeCue(cue))} on ${name(cue.outputId)} runs to ${seconds(cueEndMs(cue))}, past the scene's ${seconds(scene.lengthMs)} length.`;
-			found.push(finding('cue-past-end', 'warning', message, ...ids));
+			found.push(onCue('cue-past-end', 'warning', message));
 		}
 		if (cue.action.type === 'fade' && byId.get(cue.outputId)?.kind === 'relay') {
 			const message = `${name(cue.outputId)} is a relay and can only switch; ${describeCue(cue)} will switch at its end.`;
-			found.push(finding('relay-fade', 'warning', message, ...ids));
+			found.push(onCue('relay-fade', 'warning', message));
 		}
 	}
 	return found;
