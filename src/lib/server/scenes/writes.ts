@@ -7,7 +7,7 @@ import { isUniqueViolation } from '$lib/server/db/errors';
 import { describeChange } from '$lib/scenes/changes';
 import type { SceneContent, SceneDetails } from '$lib/schemas/scene';
 import type { LoadedScene } from './model';
-import type { SceneContext } from './reads';
+import { sceneJson, type SceneContext } from './reads';
 
 type SceneRow = typeof scenes.$inferSelect;
 
@@ -199,37 +199,16 @@ export async function duplicateScene(
 	);
 	let name = `${loaded.row.name} (copy)`;
 	for (let i = 2; taken.has(name); i++) name = `${loaded.row.name} (copy ${i})`;
-	const { row } = loaded;
+	// The same details and content under the new name; createScene gives the copy's cues and
+	// responses ids of their own.
+	const { id: _id, updatedAt: _updatedAt, cues, responses, ...details } = sceneJson(loaded);
 	return createScene(
 		db,
 		venueId,
 		personId,
-		{
-			name,
-			roomId: row.roomId,
-			trigger: row.trigger,
-			triggerSensorId: row.triggerSensorId,
-			loopMs: row.loopMs,
-			lengthMs: row.lengthMs,
-			rearmMs: row.rearmMs,
-			runsOnShowNights: row.runsOnShowNights,
-			notes: row.notes
-		},
-		{
-			cues: loaded.cues.map(({ outputId, startMs, action }) => ({ outputId, startMs, action })),
-			responses: loaded.responses.map(
-				({ sensorId, outputId, shape, threshold, points, minLevel, maxLevel }) => ({
-					sensorId,
-					outputId,
-					shape,
-					threshold,
-					points,
-					minLevel,
-					maxLevel
-				})
-			)
-		},
-		`Duplicated from '${row.name}'.`
+		{ ...details, name },
+		{ cues, responses },
+		`Duplicated from '${loaded.row.name}'.`
 	);
 }
 
