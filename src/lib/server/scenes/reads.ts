@@ -181,11 +181,9 @@ export async function sceneHistory(db: Db, venueId: string, sceneId: string) {
 		.limit(100);
 }
 
-/** A scene as the JSON API gives it: details in milliseconds, cues and responses. */
-export function sceneJson(loaded: LoadedScene) {
-	const { row, cues, responses } = loaded;
+/** A scene's details as a save takes them (times in milliseconds). */
+export function sceneDetailsOf(row: LoadedScene['row']) {
 	return {
-		id: row.id,
 		name: row.name,
 		roomId: row.roomId,
 		trigger: row.trigger,
@@ -194,7 +192,16 @@ export function sceneJson(loaded: LoadedScene) {
 		lengthMs: row.lengthMs,
 		rearmMs: row.rearmMs,
 		runsOnShowNights: row.runsOnShowNights,
-		notes: row.notes,
+		notes: row.notes
+	};
+}
+
+/** A scene as the JSON API gives it: details in milliseconds, cues and responses. */
+export function sceneJson(loaded: LoadedScene) {
+	const { row, cues, responses } = loaded;
+	return {
+		id: row.id,
+		...sceneDetailsOf(row),
 		updatedAt: row.updatedAt,
 		cues: cues.map(({ id, outputId, startMs, action }) => ({ id, outputId, startMs, action })),
 		responses: responses.map(

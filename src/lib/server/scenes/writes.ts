@@ -7,7 +7,7 @@ import { isUniqueViolation } from '$lib/server/db/errors';
 import { describeChange } from '$lib/scenes/changes';
 import type { SceneContent, SceneDetails } from '$lib/schemas/scene';
 import type { LoadedScene } from './model';
-import { sceneJson, type SceneContext } from './reads';
+import { sceneDetailsOf, sceneJson, type SceneContext } from './reads';
 
 type SceneRow = typeof scenes.$inferSelect;
 
@@ -201,12 +201,12 @@ export async function duplicateScene(
 	for (let i = 2; taken.has(name); i++) name = `${loaded.row.name} (copy ${i})`;
 	// The same details and content under the new name; createScene gives the copy's cues and
 	// responses ids of their own.
-	const { id: _id, updatedAt: _updatedAt, cues, responses, ...details } = sceneJson(loaded);
+	const { cues, responses } = sceneJson(loaded);
 	return createScene(
 		db,
 		venueId,
 		personId,
-		{ ...details, name },
+		{ ...sceneDetailsOf(loaded.row), name },
 		{ cues, responses },
 		`Duplicated from '${loaded.row.name}'.`
 	);
