@@ -7,7 +7,10 @@ import {
 	maxFlashesPerSecond,
 	needsStrobeSignage,
 	peakCurrent,
-	throughputPerHour
+	ruleContext,
+	SCENE_RULES,
+	throughputPerHour,
+	type SceneCheckOptions
 } from './checks';
 import { timelinePoints } from './timeline';
 import type { Cue, CueAction, Finding, FindingCode, Output, Scene } from './types';
@@ -427,4 +430,92 @@ describe('checkScene housekeeping', () => {
 			'scene-invalid'
 		]);
 	});
+});
+
+describe('each rule alone', () => {
+	type Case = { scene: Scene; outputs: Output[]; options?: SceneCheckOptions; code: FindingCode };
+	const pulse = (outputId: string, startMs: number): Cue =>
+		cue(outputId, startMs, { type: 'pulse', durationMs: 100 });
+	const cases: Record<string, Case> = {
+		'scene times': { scene: scene([], { lengthMs: 0 }), outputs: [], code: 'scene-invalid' },
+		cues: {
+			scene: scene([cue('gone', 0, { type: 'set', level: 1 })]),
+			outputs: [],
+			code: 'unknown-output'
+		},
+		'response outputs': {
+			scene: scene([], { responses: [{ id: 'r', sensorId: 's', outputId: 'gone' }] }),
+			outputs: [],
+			code: 'unknown-output'
+		},
+		'cue overlaps': {
+			scene: scene([
+				cue('a', 1000, { type: 'set', level: 1 }),
+				cue('a', 1000, { type: 'set', level: 0 })
+			]),
+			outputs: [led('a')],
+			code: 'cue-overlap'
+		},
+		'safe states': {
+			scene: scene([cue('a', 0, { type: 'set', level: 1 })]),
+			outputs: [led('a', 1, { safeState: ' ' })],
+			code: 'safe-state-missing'
+		},
+		'lamp flashes': {
+			scene: scene([cue('a', 1000, strobe(4))]),
+			outputs: [led('a')],
+			code: 'flash-rate'
+		},
+		'room flashes': {
+			scene: scene([cue('a', 1000, strobe(2)), cue('b', 1125, strobe(2))]),
+			outputs: [led('a'), led('b')],
+			code: 'flash-rate'
+		},
+		'response flicker': {
+			scene: scene([], {
+				responses: [
+					{ id: 'r', sensorId: 's', outputId: 'a', shape: 'step', threshold: 0.6, minLevel: 0.15 }
+				]
+			}),
+			outputs: [led('a')],
+			code: 'flash-rate'
+		},
+		'strobe lights': {
+			scene: scene([pulse('s', 1000)]),
+			outputs: [relay('s', { relayKind: 'strobe' })],
+			code: 'strobe-light'
+		},
+		'supply current': {
+			scene: scene([cue('a', 0, { type: 'set', level: 1 })]),
+			outputs: [led('a', 2)],
+			options: { supplyAmps: 1 },
+			code: 'supply-current'
+		},
+		'cycle over dispatch': {
+			scene: scene([]),
+			outputs: [],
+			options: { dispatchIntervalS: 10 },
+			code: 'cycle-over-dispatch'
+		},
+		throughput: { scene: scene([]), outputs: [], options: { groupSize: 6 }, code: 'throughput' },
+		'relay timing': {
+			scene: scene([pulse('v', 1000)]),
+			outputs: [relay('v', { minOnMs: 500 })],
+			code: 'relay-min-on'
+		}
+	};
+
+	it('has a case for every rule', () => {
+		expect(Object.keys(cases).sort()).toEqual(SCENE_RULES.map((r) => r.name).sort());
+	});
+
+	it.each(SCENE_RULES.map((rule) => [rule.name, rule] as const))(
+		'%s finds its case, and checkScene finds the same',
+		(name, rule) => {
+			const c = cases[name];
+			const alone = rule.check(ruleContext(c.scene, c.outputs, c.options));
+			expect(alone.map((f) => f.code)).toContain(c.code);
+			expect(checkScene(c.scene, c.outputs, c.options)).toEqual(expect.arrayContaining(alone));
+		}
+	);
 });

@@ -271,315 +271,441 @@ function cuesBetween(scene: Scene, outputId: string, fromMs: number, toMs: numbe
 		.map((cue) => cue.id);
 }
 
-/** Every check of a scene, errors first. */
-export function checkScene(
+/** What every rule reads: the scene, its outputs and what is worked out once for all the rules. */
+export interface RuleContext {
+	scene: Scene;
+	outputs: Output[];
+	options: SceneCheckOptions;
+	byId: Map<string, Output>;
+	/** An output's name in quotes, or its id when it does not exist. */
+	name: (id: string) => string;
+	/** The outputs that a cue or a response uses. */
+	used: Output[];
+	luminance: (output: Output, level: number) => number;
+	/** The used LEDs and strobe relays... */
+	lights: Output[];
+	/** ...and each one's luminance over the scene, worked out on first use. */
+	lightPoints: TimelinePoint[][];
+}
+
+/** One rule of the scene checks: its findings in the order it finds them. */
+export type SceneRule = (c: RuleContext) => Finding[];
+
+const finding = (
+	code: FindingCode,
+	severity: Severity,
+	message: string,
+	cueIds: string[] = [],
+	outputIds: string[] = []
+): Finding => ({ code, severity, message, cueIds, outputIds });
+
+export function ruleContext(
 	scene: Scene,
 	outputs: Output[],
 	options: SceneCheckOptions = {}
-): Finding[] {
-	const findings: Finding[] = [];
-	const add = (
-		code: FindingCode,
-		severity: Severity,
-		message: string,
-		cueIds: string[] = [],
-		outputIds: string[] = []
-	) => findings.push({ code, severity, message, cueIds, outputIds });
-
-	if (!(Number.isFinite(scene.lengthMs) && scene.lengthMs > 0)) {
-		add('scene-invalid', 'error', 'The scene needs a length of more than 0 s.');
-	}
-	if (!(Number.isFinite(scene.rearmMs) && scene.rearmMs >= 0)) {
-		add('scene-invalid', 'error', 'The re-arm time must be 0 s or more.');
-	}
-	if (findings.length > 0) return findings;
-
+): RuleContext {
 	const byId = new Map(outputs.map((output) => [output.id, output]));
-	const name = (id: string) => `'${byId.get(id)?.name ?? id}'`;
-
-	for (const cue of scene.cues) {
-		if (!byId.has(cue.outputId)) {
-			add(
-				'unknown-output',
-				'error',
-				`A cue uses an output that does not exist (${cue.outputId}).`,
-				[cue.id],
-				[cue.outputId]
+	const used = usedOutputs(scene, outputs);
+	const luminance = options.luminance ?? ((_: Output, level: number) => level);
+	const lights = used.filter(
+		(o) => o.kind === 'led' || (o.kind === 'relay' && o.relayKind === 'strobe')
+	);
+	let lightPoints: TimelinePoint[][] | undefined;
+	return {
+		scene,
+		outputs,
+		options,
+		byId,
+		name: (id) => `'${byId.get(id)?.name ?? id}'`,
+		used,
+		luminance,
+		lights,
+		get lightPoints() {
+			lightPoints ??= lights.map((output) =>
+				output.kind === 'led'
+					? timelinePoints(scene, output.id, { kind: 'led' }).map((p) => ({
+							tMs: p.tMs,
+							level: luminance(output, p.level)
+						}))
+					: timelinePoints(scene, output.id, { kind: 'relay' })
 			);
+			return lightPoints;
+		}
+	};
+}
+
+/** A length of more than 0 and a re-arm of 0 or more; without them no other rule can run. */
+export function sceneTimesRule({ scene }: RuleContext): Finding[] {
+	const found: Finding[] = [];
+	if (!(Number.isFinite(scene.lengthMs) && scene.lengthMs > 0))
+		found.push(finding('scene-invalid', 'error', 'The scene needs a length of more than 0 s.'));
+	if (!(Number.isFinite(scene.rearmMs) && scene.rearmMs >= 0))
+		found.push(finding('scene-invalid', 'error', 'The re-arm time must be 0 s or more.'));
+	return found;
+}
+
+/** Each cue in turn: its output exists, it can run, it ends within the scene, a relay is not faded. */
+export function cuesRule({ scene, byId, name }: RuleContext): Finding[] {
+	const found: Finding[] = [];
+	for (const cue of scene.cues) {
+		const onCue = (code: FindingCode, severity: Severity, message: string) =>
+			finding(code, severity, message, [cue.id], [cue.outputId]);
+		if (!byId.has(cue.outputId)) {
+			const message = `A cue uses an output that does not exist (${cue.outputId}).`;
+			found.push(onCue('unknown-output', 'error', message));
 			continue;
 		}
 		const problem = cueProblem(cue);
 		if (problem) {
-			add(
-				'cue-invalid',
-				'error',
-				`A cue on ${name(cue.outputId)} cannot run: ${problem}.`,
-				[cue.id],
-				[cue.outputId]
-			);
+			const message = `A cue on ${name(cue.outputId)} cannot run: ${problem}.`;
+			found.push(onCue('cue-invalid', 'error', message));
 			continue;
 		}
 		if (cueEndMs(cue) > scene.lengthMs) {
-			add(
-				'cue-past-end',
-				'warning',
-				`${capital(describeCue(cue))} on ${name(cue.outputId)} runs to ${seconds(cueEndMs(cue))}, past the scene's ${seconds(scene.lengthMs)} length.`,
-				[cue.id],
-				[cue.outputId]
-			);
+			const message = `${capital(describeCue(cue))} on ${name(cue.outputId)} runs to ${seconds(cueEndMs(cue))}, past the scene's ${seconds(scene.lengthMs)} length.`;
+			found.push(onCue('cue-past-end', 'warning', message));
 		}
 		if (cue.action.type === 'fade' && byId.get(cue.outputId)?.kind === 'relay') {
-			add(
-				'relay-fade',
-				'warning',
-				`${name(cue.outputId)} is a relay and can only switch; ${describeCue(cue)} will switch at its end.`,
-				[cue.id],
-				[cue.outputId]
-			);
+			const message = `${name(cue.outputId)} is a relay and can only switch; ${describeCue(cue)} will switch at its end.`;
+			found.push(onCue('relay-fade', 'warning', message));
 		}
 	}
-	for (const response of scene.responses ?? []) {
-		if (!byId.has(response.outputId)) {
-			add(
+	return found;
+}
+
+/** Every response drives an output that exists. */
+export function responseOutputsRule({ scene, byId }: RuleContext): Finding[] {
+	return (scene.responses ?? [])
+		.filter((response) => !byId.has(response.outputId))
+		.map((response) =>
+			finding(
 				'unknown-output',
 				'error',
 				`A response uses an output that does not exist (${response.outputId}).`,
 				[],
 				[response.outputId]
-			);
-		}
-	}
-
-	for (const overlap of findCueOverlaps(scene)) {
-		if (!byId.has(overlap.outputId)) continue;
-		add(
-			'cue-overlap',
-			'warning',
-			`${capital(describeCue(overlap.first))} and ${describeCue(overlap.second)} on ${name(overlap.outputId)} overlap; the later cue takes over.`,
-			[overlap.first.id, overlap.second.id],
-			[overlap.outputId]
+			)
 		);
-	}
+}
 
-	const used = usedOutputs(scene, outputs);
-	for (const output of used) {
-		if (!output.safeState?.trim()) {
-			add(
+/** Cues on one output whose times overlap. */
+export function cueOverlapRule({ scene, byId, name }: RuleContext): Finding[] {
+	return findCueOverlaps(scene)
+		.filter((overlap) => byId.has(overlap.outputId))
+		.map((overlap) =>
+			finding(
+				'cue-overlap',
+				'warning',
+				`${capital(describeCue(overlap.first))} and ${describeCue(overlap.second)} on ${name(overlap.outputId)} overlap; the later cue takes over.`,
+				[overlap.first.id, overlap.second.id],
+				[overlap.outputId]
+			)
+		);
+}
+
+/** Every output used has a safe state. */
+export function safeStateRule({ used, name }: RuleContext): Finding[] {
+	return used
+		.filter((output) => !output.safeState?.trim())
+		.map((output) =>
+			finding(
 				'safe-state-missing',
 				'error',
 				`${name(output.id)} has no safe state. Every output used needs one: what it does on alarm or stop (lights to full, relays de-energised, fog and audio off).`,
 				[],
 				[output.id]
-			);
-		}
-	}
+			)
+		);
+}
 
-	const luminance = options.luminance ?? ((_: Output, level: number) => level);
-	// Each light's luminance over the scene, worked out once for the checks of one lamp and of the room.
-	const lights = used.filter(
-		(o) => o.kind === 'led' || (o.kind === 'relay' && o.relayKind === 'strobe')
-	);
-	const lightPoints = lights.map((output) =>
-		output.kind === 'led'
-			? timelinePoints(scene, output.id, { kind: 'led' }).map((p) => ({
-					tMs: p.tMs,
-					level: luminance(output, p.level)
-				}))
-			: timelinePoints(scene, output.id, { kind: 'relay' })
-	);
+/** An LED flashing more than 3 times in a second. */
+export function lampFlashRule({ scene, lights, lightPoints, name }: RuleContext): Finding[] {
+	const found: Finding[] = [];
 	lights.forEach((output, i) => {
 		if (output.kind !== 'led') return;
 		const worst = maxFlashesPerSecond(lightPoints[i]);
-		if (worst.flashes > MAX_FLASHES_PER_SECOND) {
-			add(
+		if (worst.flashes <= MAX_FLASHES_PER_SECOND) return;
+		found.push(
+			finding(
 				'flash-rate',
 				'warning',
 				`${name(output.id)} flashes ${count(worst.flashes)} times in one second (from ${seconds(worst.fromMs)}). More than 3 flashes a second can trigger seizures in people with photosensitive epilepsy (WCAG 2.3.1): slow it to 3 or fewer, or post photosensitivity warning signage before guests enter.`,
 				cuesBetween(scene, output.id, worst.fromMs, worst.fromMs + 1000),
 				[output.id]
-			);
-		}
+			)
+		);
 	});
-	// Every light of a scene is in the same room and so in the guests' view at once: WCAG 2.3.1
-	// counts the flashes a viewer sees, not those of each lamp, so they are counted together too.
-	if (lights.length > 1) {
-		const together = maxFlashesPerSecondTogether(lightPoints);
-		const alone = Math.max(...lightPoints.map((points) => maxFlashesPerSecond(points).flashes));
-		if (together.flashes > MAX_FLASHES_PER_SECOND && together.flashes > alone) {
-			const inWindow = lights.filter((_, i) =>
-				flashTransitions(lightPoints[i]).some(
-					(t) => t >= together.fromMs && t < together.fromMs + 1000
-				)
-			);
-			add(
-				'flash-rate',
-				'warning',
-				`Together, ${list(inWindow.map((o) => name(o.id)))} flash ${count(together.flashes)} times in one second (from ${seconds(together.fromMs)}). Lights in one room are seen at once, so their flashes add up (WCAG 2.3.1): stagger or slow them to 3 or fewer a second, or post photosensitivity warning signage before guests enter.`,
-				inWindow.flatMap((o) => cuesBetween(scene, o.id, together.fromMs, together.fromMs + 1000)),
-				inWindow.map((o) => o.id)
-			);
-		}
-	}
-	// A light that jumps when a sensor crosses a depth flickers as fast as the reading wavers
-	// about that depth (a guest lingering there, or noise): its worst case has no limit.
+	return found;
+}
+
+/**
+ * Lights flashing more than 3 times in a second together. Every light of a scene is in the same
+ * room and so in the guests' view at once: WCAG 2.3.1 counts the flashes a viewer sees, not those
+ * of each lamp, so they are counted together too.
+ */
+export function roomFlashRule({ scene, lights, lightPoints, name }: RuleContext): Finding[] {
+	if (lights.length < 2) return [];
+	const together = maxFlashesPerSecondTogether(lightPoints);
+	const alone = Math.max(...lightPoints.map((points) => maxFlashesPerSecond(points).flashes));
+	if (together.flashes <= MAX_FLASHES_PER_SECOND || together.flashes <= alone) return [];
+	const inWindow = lights.filter((_, i) =>
+		flashTransitions(lightPoints[i]).some((t) => t >= together.fromMs && t < together.fromMs + 1000)
+	);
+	return [
+		finding(
+			'flash-rate',
+			'warning',
+			`Together, ${list(inWindow.map((o) => name(o.id)))} flash ${count(together.flashes)} times in one second (from ${seconds(together.fromMs)}). Lights in one room are seen at once, so their flashes add up (WCAG 2.3.1): stagger or slow them to 3 or fewer a second, or post photosensitivity warning signage before guests enter.`,
+			inWindow.flatMap((o) => cuesBetween(scene, o.id, together.fromMs, together.fromMs + 1000)),
+			inWindow.map((o) => o.id)
+		)
+	];
+}
+
+/**
+ * A light that jumps when a sensor crosses a depth flickers as fast as the reading wavers about
+ * that depth (a guest lingering there, or noise): its worst case has no limit.
+ */
+export function responseFlickerRule({ scene, byId, luminance, name }: RuleContext): Finding[] {
+	const found: Finding[] = [];
 	for (const response of scene.responses ?? []) {
 		const output = byId.get(response.outputId);
 		if (!output || output.kind !== 'led') continue;
-		for (const jump of responseJumps(response)) {
-			const [dim, bright] = [luminance(output, jump.low), luminance(output, jump.high)];
-			if (bright - dim < FLASH_CHANGE - TOLERANCE || dim >= FLASH_DARKER_BELOW) continue;
-			add(
+		const jump = responseJumps(response).find((j) => {
+			const [dim, bright] = [luminance(output, j.low), luminance(output, j.high)];
+			return bright - dim >= FLASH_CHANGE - TOLERANCE && dim < FLASH_DARKER_BELOW;
+		});
+		if (!jump) continue;
+		found.push(
+			finding(
 				'flash-rate',
 				'warning',
 				`${name(output.id)} jumps between ${percent(jump.low)} and ${percent(jump.high)} when the sensor reads ${depthWords(jump.depth)}: a guest lingering there, or a wavering reading, can make it flicker more than 3 times a second (WCAG 2.3.1). Give the board's code a dead band or a minimum time between changes, use a gradual shape, or post photosensitivity warning signage before guests enter.`,
 				[],
 				[output.id]
-			);
-			break;
-		}
-	}
-	for (const output of used.filter((o) => o.kind === 'relay' && o.relayKind === 'strobe')) {
-		add(
-			'strobe-light',
-			'warning',
-			`${name(output.id)} switches a strobe light. Unless it flashes 3 times a second or fewer, post photosensitivity warning signage before guests enter (WCAG 2.3.1), and keep it away from stairs and exits.`,
-			scene.cues.filter((cue) => cue.outputId === output.id).map((cue) => cue.id),
-			[output.id]
+			)
 		);
 	}
+	return found;
+}
 
+/** A relay that switches a strobe light. */
+export function strobeLightRule({ scene, used, name }: RuleContext): Finding[] {
+	return used
+		.filter((o) => o.kind === 'relay' && o.relayKind === 'strobe')
+		.map((output) =>
+			finding(
+				'strobe-light',
+				'warning',
+				`${name(output.id)} switches a strobe light. Unless it flashes 3 times a second or fewer, post photosensitivity warning signage before guests enter (WCAG 2.3.1), and keep it away from stairs and exits.`,
+				scene.cues.filter((cue) => cue.outputId === output.id).map((cue) => cue.id),
+				[output.id]
+			)
+		);
+}
+
+/** The peak current against the supply's rating and 80 % of it; a note when no rating is set. */
+export function supplyCurrentRule({ scene, outputs, options }: RuleContext): Finding[] {
 	const peak = peakCurrent(scene, outputs);
 	const supply = options.supplyAmps;
-	if (supply !== undefined && supply > 0) {
-		const usable = supply * SUPPLY_DERATING;
-		const where = `${amps(peak.amps)} at ${seconds(peak.atMs)}`;
-		if (peak.amps > supply + TOLERANCE) {
-			add(
-				'supply-current',
-				'error',
-				`Peak current ${where} is more than the supply's ${amps(supply)} rating.`,
-				[],
-				peak.outputIds
-			);
-		} else if (peak.amps > usable + TOLERANCE) {
-			add(
-				'supply-current',
-				'warning',
-				`Peak current ${where} is above ${amps(usable)}, 80 % of the supply's ${amps(supply)} rating. Use a larger supply or stagger the cues.`,
-				[],
-				peak.outputIds
-			);
-		} else {
-			add(
-				'supply-current',
+	const say = (severity: Severity, message: string) =>
+		finding('supply-current', severity, message, [], peak.outputIds);
+	if (supply === undefined || !(supply > 0))
+		return [
+			say(
 				'info',
-				`Peak current ${where}, within ${amps(usable)} (80 % of the supply's ${amps(supply)} rating).`,
-				[],
-				peak.outputIds
-			);
-		}
-	} else {
-		add(
-			'supply-current',
+				`Peak current ${amps(peak.amps)} at ${seconds(peak.atMs)}. Set the supply rating to check it.`
+			)
+		];
+	const usable = supply * SUPPLY_DERATING;
+	const where = `${amps(peak.amps)} at ${seconds(peak.atMs)}`;
+	if (peak.amps > supply + TOLERANCE)
+		return [
+			say('error', `Peak current ${where} is more than the supply's ${amps(supply)} rating.`)
+		];
+	if (peak.amps > usable + TOLERANCE)
+		return [
+			say(
+				'warning',
+				`Peak current ${where} is above ${amps(usable)}, 80 % of the supply's ${amps(supply)} rating. Use a larger supply or stagger the cues.`
+			)
+		];
+	return [
+		say(
 			'info',
-			`Peak current ${amps(peak.amps)} at ${seconds(peak.atMs)}. Set the supply rating to check it.`,
-			[],
-			peak.outputIds
-		);
-	}
+			`Peak current ${where}, within ${amps(usable)} (80 % of the supply's ${amps(supply)} rating).`
+		)
+	];
+}
 
+/** A cycle longer than the dispatch interval sets the pace of the attraction. */
+export function cycleOverDispatchRule({ scene, options }: RuleContext): Finding[] {
 	const cycle = cycleMs(scene);
-	const dispatchS = options.dispatchIntervalS;
-	const group = options.groupSize;
+	const { dispatchIntervalS: dispatchS, groupSize: group } = options;
+	if (!(dispatchS !== undefined && dispatchS > 0 && cycle > dispatchS * 1000)) return [];
 	const cycleText = `The cycle (${seconds(scene.lengthMs)} length + ${seconds(scene.rearmMs)} re-arm = ${seconds(cycle)})`;
-	if (dispatchS !== undefined && dispatchS > 0 && cycle > dispatchS * 1000) {
-		const limit =
-			group !== undefined && group > 0
-				? `: ${Math.floor(throughputPerHour(group, dispatchS, cycle / 1000))} guests per hour instead of ${Math.floor(throughputPerHour(group, dispatchS))}`
-				: '';
-		add(
+	const limit =
+		group !== undefined && group > 0
+			? `: ${Math.floor(throughputPerHour(group, dispatchS, cycle / 1000))} guests per hour instead of ${Math.floor(throughputPerHour(group, dispatchS))}`
+			: '';
+	return [
+		finding(
 			'cycle-over-dispatch',
 			'warning',
 			`${cycleText} is longer than the ${seconds(dispatchS * 1000)} dispatch interval, so this scene sets the pace${limit}.`
-		);
-	}
-	if (group !== undefined && group > 0) {
-		const interval = Math.max(dispatchS ?? 0, cycle / 1000);
-		add(
+		)
+	];
+}
+
+/** Guests per hour, when the group size is known. */
+export function throughputRule({ scene, options }: RuleContext): Finding[] {
+	const group = options.groupSize;
+	if (group === undefined || !(group > 0)) return [];
+	const interval = Math.max(options.dispatchIntervalS ?? 0, cycleMs(scene) / 1000);
+	return [
+		finding(
 			'throughput',
 			'info',
 			`${Math.floor(throughputPerHour(group, interval))} guests per hour (groups of ${group} every ${seconds(interval * 1000)}).`
-		);
-	}
+		)
+	];
+}
 
+/** One relay's on periods over the timeline, and the cues acting in some of them. */
+interface RelayRun {
+	output: Output;
+	endMs: number;
+	periods: OnPeriod[];
+	cueIds: (periods: { startMs: number; endMs: number }[]) => string[];
+}
+
+function relayMinOn({ output, periods, cueIds }: RelayRun, name: RuleContext['name']) {
+	if (output.minOnMs === undefined) return [];
+	const minOn = output.minOnMs;
+	const short = periods.filter((p) => !p.onAtEnd && p.endMs - p.startMs < minOn - TOLERANCE);
+	if (short.length === 0) return [];
+	const least = Math.min(...short.map((p) => p.endMs - p.startMs));
+	return [
+		finding(
+			'relay-min-on',
+			'error',
+			`${name(output.id)} is on for as little as ${seconds(least)} (${short.length} time${short.length === 1 ? '' : 's'}), under its ${seconds(minOn)} minimum on time.`,
+			cueIds(short),
+			[output.id]
+		)
+	];
+}
+
+function relayMinOff(run: RelayRun, name: RuleContext['name'], rearmMs: number) {
+	const { output, periods, cueIds, endMs } = run;
+	if (output.minOffMs === undefined) return [];
+	const minOff = output.minOffMs;
+	const gaps: { startMs: number; endMs: number }[] = [];
+	for (let i = 1; i < periods.length; i++)
+		gaps.push({ startMs: periods[i - 1].endMs, endMs: periods[i].startMs });
+	const last = periods.at(-1)!;
+	const wrap = last.onAtEnd ? null : endMs - last.endMs + rearmMs + periods[0].startMs;
+	const short = gaps.filter((g) => g.endMs - g.startMs < minOff - TOLERANCE);
+	const wrapShort = wrap !== null && wrap < minOff - TOLERANCE;
+	if (short.length === 0 && !wrapShort) return [];
+	const least = Math.min(...short.map((g) => g.endMs - g.startMs), wrapShort ? wrap! : Infinity);
+	const note = wrapShort ? ' (counting the gap into the next run of the scene)' : '';
+	return [
+		finding(
+			'relay-min-off',
+			'error',
+			`${name(output.id)} is off for as little as ${seconds(least)}${note}, under its ${seconds(minOff)} minimum off time.`,
+			cueIds([...short, ...(wrapShort ? [periods[0], last] : [])]),
+			[output.id]
+		)
+	];
+}
+
+function relayDuty(
+	{ output, periods, cueIds, endMs }: RelayRun,
+	name: RuleContext['name'],
+	rearmMs: number
+) {
+	if (output.maxDutyPercent === undefined) return [];
+	const on = periods.reduce((sum, p) => sum + p.endMs - p.startMs, 0);
+	const duty = (100 * on) / (endMs + rearmMs);
+	if (duty <= output.maxDutyPercent + TOLERANCE) return [];
+	return [
+		finding(
+			'relay-duty',
+			'error',
+			`${name(output.id)} is on ${Number(duty.toFixed(1))} % of each cycle, above its ${output.maxDutyPercent} % duty rating.`,
+			cueIds(periods),
+			[output.id]
+		)
+	];
+}
+
+function relayOnAtEnd({ output, periods, cueIds }: RelayRun, name: RuleContext['name']) {
+	const last = periods.at(-1)!;
+	if (!last.onAtEnd) return [];
+	return [
+		finding(
+			'relay-on-at-end',
+			'warning',
+			`${name(output.id)} is still on when the scene ends and stays on through the re-arm.`,
+			cueIds([last]),
+			[output.id]
+		)
+	];
+}
+
+/** Each relay in turn against its minimum on and off times and its duty rating, and left on at the end. */
+export function relayTimingRule({ scene, used, name }: RuleContext): Finding[] {
 	const endMs = timelineEndMs(scene);
-	for (const output of used.filter((o) => o.kind === 'relay')) {
-		const periods = relayOnPeriods(timelinePoints(scene, output.id, { kind: 'relay', endMs }));
-		if (periods.length === 0) continue;
-		const ids = (list: { startMs: number; endMs: number }[]) => [
-			...new Set(list.flatMap((p) => cuesBetween(scene, output.id, p.startMs, p.endMs)))
-		];
-		const closed = periods.filter((p) => !p.onAtEnd);
-		if (output.minOnMs !== undefined) {
-			const short = closed.filter((p) => p.endMs - p.startMs < output.minOnMs! - TOLERANCE);
-			if (short.length > 0) {
-				const least = Math.min(...short.map((p) => p.endMs - p.startMs));
-				add(
-					'relay-min-on',
-					'error',
-					`${name(output.id)} is on for as little as ${seconds(least)} (${short.length} time${short.length === 1 ? '' : 's'}), under its ${seconds(output.minOnMs)} minimum on time.`,
-					ids(short),
-					[output.id]
-				);
-			}
-		}
-		if (output.minOffMs !== undefined) {
-			const gaps: { startMs: number; endMs: number }[] = [];
-			for (let i = 1; i < periods.length; i++)
-				gaps.push({ startMs: periods[i - 1].endMs, endMs: periods[i].startMs });
-			const last = periods.at(-1)!;
-			const wrap = last.onAtEnd ? null : endMs - last.endMs + scene.rearmMs + periods[0].startMs;
-			const short = gaps.filter((g) => g.endMs - g.startMs < output.minOffMs! - TOLERANCE);
-			const wrapShort = wrap !== null && wrap < output.minOffMs - TOLERANCE;
-			if (short.length > 0 || wrapShort) {
-				const least = Math.min(
-					...short.map((g) => g.endMs - g.startMs),
-					wrapShort ? wrap! : Infinity
-				);
-				const note = wrapShort ? ' (counting the gap into the next run of the scene)' : '';
-				add(
-					'relay-min-off',
-					'error',
-					`${name(output.id)} is off for as little as ${seconds(least)}${note}, under its ${seconds(output.minOffMs)} minimum off time.`,
-					ids([...short, ...(wrapShort ? [periods[0], last] : [])]),
-					[output.id]
-				);
-			}
-		}
-		if (output.maxDutyPercent !== undefined) {
-			const on = periods.reduce((sum, p) => sum + p.endMs - p.startMs, 0);
-			const duty = (100 * on) / (endMs + scene.rearmMs);
-			if (duty > output.maxDutyPercent + TOLERANCE) {
-				add(
-					'relay-duty',
-					'error',
-					`${name(output.id)} is on ${Number(duty.toFixed(1))} % of each cycle, above its ${output.maxDutyPercent} % duty rating.`,
-					ids(periods),
-					[output.id]
-				);
-			}
-		}
-		if (periods.at(-1)!.onAtEnd) {
-			add(
-				'relay-on-at-end',
-				'warning',
-				`${name(output.id)} is still on when the scene ends and stays on through the re-arm.`,
-				ids([periods.at(-1)!]),
-				[output.id]
-			);
-		}
-	}
+	return used
+		.filter((o) => o.kind === 'relay')
+		.flatMap((output) => {
+			const periods = relayOnPeriods(timelinePoints(scene, output.id, { kind: 'relay', endMs }));
+			if (periods.length === 0) return [];
+			const cueIds = (list: { startMs: number; endMs: number }[]) => [
+				...new Set(list.flatMap((p) => cuesBetween(scene, output.id, p.startMs, p.endMs)))
+			];
+			const run: RelayRun = { output, endMs, periods, cueIds };
+			return [
+				...relayMinOn(run, name),
+				...relayMinOff(run, name, scene.rearmMs),
+				...relayDuty(run, name, scene.rearmMs),
+				...relayOnAtEnd(run, name)
+			];
+		});
+}
 
+/** The rules in the order their findings are listed (within a severity). */
+export const SCENE_RULES: readonly { name: string; check: SceneRule; stopsTheRest?: true }[] = [
+	{ name: 'scene times', check: sceneTimesRule, stopsTheRest: true },
+	{ name: 'cues', check: cuesRule },
+	{ name: 'response outputs', check: responseOutputsRule },
+	{ name: 'cue overlaps', check: cueOverlapRule },
+	{ name: 'safe states', check: safeStateRule },
+	{ name: 'lamp flashes', check: lampFlashRule },
+	{ name: 'room flashes', check: roomFlashRule },
+	{ name: 'response flicker', check: responseFlickerRule },
+	{ name: 'strobe lights', check: strobeLightRule },
+	{ name: 'supply current', check: supplyCurrentRule },
+	{ name: 'cycle over dispatch', check: cycleOverDispatchRule },
+	{ name: 'throughput', check: throughputRule },
+	{ name: 'relay timing', check: relayTimingRule }
+];
+
+/** Every check of a scene, errors first; a scene without a usable length or re-arm gets only that. */
+export function checkScene(
+	scene: Scene,
+	outputs: Output[],
+	options: SceneCheckOptions = {}
+): Finding[] {
+	const context = ruleContext(scene, outputs, options);
+	const findings: Finding[] = [];
+	for (const rule of SCENE_RULES) {
+		const found = rule.check(context);
+		findings.push(...found);
+		if (rule.stopsTheRest && found.length > 0) return findings;
+	}
 	return findings
 		.map((finding, index) => ({ finding, index }))
 		.sort((a, b) => ORDER[a.finding.severity] - ORDER[b.finding.severity] || a.index - b.index)

@@ -4,7 +4,13 @@ import { db } from '$lib/server/db';
 import { readJson } from '$lib/server/props/api';
 import { apiScene, refErrorResponse } from '$lib/server/scenes/api';
 import { loadScene } from '$lib/server/scenes/model';
-import { refErrors, saveScene, sceneContext, sceneJson } from '$lib/server/scenes/records';
+import {
+	refErrors,
+	saveScene,
+	sceneContext,
+	sceneDetailsOf,
+	sceneJson
+} from '$lib/server/scenes/records';
 import { cueSchema } from '$lib/schemas/scene';
 import type { RequestHandler } from './$types';
 
@@ -33,17 +39,7 @@ export const POST: RequestHandler = async (event) => {
 		venue.id,
 		event.locals.person!.id,
 		found.loaded,
-		{
-			name: row.name,
-			roomId: row.roomId,
-			trigger: row.trigger,
-			triggerSensorId: row.triggerSensorId,
-			loopMs: row.loopMs,
-			lengthMs: row.lengthMs,
-			rearmMs: row.rearmMs,
-			runsOnShowNights: row.runsOnShowNights,
-			notes: row.notes
-		},
+		sceneDetailsOf(row),
 		{ cues: [...cues, cue], responses },
 		(id) => names.get(id) ?? 'a removed output'
 	);
