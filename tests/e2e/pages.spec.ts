@@ -101,8 +101,9 @@ const pages: {
 			await page.goto(`${TRAIL}/seasons`);
 			await page.getByRole('link', { name: 'Hollow Pines Autumn 2027' }).click();
 			await page.getByRole('link', { name: 'Fri 1 Oct 2027' }).first().click();
-			// No prop fails on the demo night, so the show page links to the stand-down picker.
-			await page.getByRole('link', { name: 'Choose a prop to stand down…' }).click();
+			await page
+				.getByRole('link', { name: /^(Choose a prop to stand down|Stand down another prop)…$/ })
+				.click();
 			const prop = await page
 				.getByLabel('Prop', { exact: true })
 				.locator('option:not([value=""])')
