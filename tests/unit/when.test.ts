@@ -1,7 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { addMinutes, format } from 'date-fns';
 import { formatInTimeZone } from 'date-fns-tz';
-import { clockTime, localDateTime, localTime, timeValue, typedDateTime } from '$lib/util/when';
+import {
+	clockTime,
+	localDateTime,
+	localTime,
+	timeValue,
+	typedDateTime,
+	wallDay,
+	wallWeek
+} from '$lib/util/when';
 
 // date-fns 4 `format` is the reference for both clocks: 'HH:mm' (24-hour) and 'h:mm aaa'
 // (12-hour, lower-case am/pm, no leading zero: '7:05 pm', '12:00 pm' at noon, '12:00 am' at midnight).
@@ -48,5 +56,21 @@ describe('the venue clock', () => {
 		expect(typedDateTime('2027-10-03', '19:30', '12h')).toBe('Sun 3 Oct 2027, 7:30 pm');
 		expect(typedDateTime('2027-10-03', '', '24h')).toBe('Sun 3 Oct 2027');
 		expect(typedDateTime('', '', '24h')).toBe('');
+	});
+});
+
+describe('calendar headings', () => {
+	it('write every day of two years the way date-fns writes EEE d MMM', () => {
+		// date-fns format tokens, en-US default locale: 'EEE d MMM' → 'Fri 1 Oct'.
+		for (let d = new Date(2027, 0, 1); d.getFullYear() < 2029; d = new Date(d.getTime() + 864e5)) {
+			const day = new Date(d.getFullYear(), d.getMonth(), d.getDate());
+			expect(wallDay(day)).toBe(format(day, 'EEE d MMM'));
+			expect(wallDay(day, true)).toBe(format(day, 'EEE d MMM yyyy'));
+		}
+	});
+
+	it('title a week with its last day, the year once unless it changes', () => {
+		expect(wallWeek(new Date(2027, 8, 27), new Date(2027, 9, 4))).toBe('27 Sep – 3 Oct 2027');
+		expect(wallWeek(new Date(2027, 11, 27), new Date(2028, 0, 3))).toBe('27 Dec 2027 – 2 Jan 2028');
 	});
 });

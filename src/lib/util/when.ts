@@ -76,6 +76,23 @@ export function localDay(date: string): string {
 	return `${WEEKDAYS[weekday]} ${d} ${MONTHS[m - 1]} ${y}`;
 }
 
+/**
+ * A floating date's day as the calendar heads it ('Fri 1 Oct', with the year 'Fri 1 Oct 2027'): the
+ * calendar hands over dates whose local fields are already the venue's wall time.
+ */
+export function wallDay(d: Date, withYear = false): string {
+	const day = `${WEEKDAYS[d.getDay()]} ${d.getDate()} ${MONTHS[d.getMonth()]}`;
+	return withYear ? `${day} ${d.getFullYear()}` : day;
+}
+
+/** A floating week as the calendar titles it: '27 Sep – 3 Oct 2027', end exclusive. */
+export function wallWeek(start: Date, end: Date | null): string {
+	const last = end ? new Date(end.getTime() - 1) : start;
+	const first = `${start.getDate()} ${MONTHS[start.getMonth()]}`;
+	const year = start.getFullYear() === last.getFullYear() ? '' : ` ${start.getFullYear()}`;
+	return `${first}${year} – ${last.getDate()} ${MONTHS[last.getMonth()]} ${last.getFullYear()}`;
+}
+
 /** The venue's local date 'YYYY-MM-DD' of an instant. */
 export function localDate(at: Date | string, timeZone: string): string {
 	return formatter(
