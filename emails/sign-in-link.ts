@@ -1,4 +1,5 @@
-import { button, escapeHtml, frame } from './layout';
+import { renderHtml } from './render';
+import SignInLink from './SignInLink.svelte';
 
 export interface SignInLinkData {
 	url: string;
@@ -7,12 +8,7 @@ export interface SignInLinkData {
 
 export function renderSignInLink({ url, email }: SignInLinkData) {
 	const subject = 'Your Gloaming sign-in link';
-	const html = frame(
-		subject,
-		`<p style="margin:0 0 12px;">Use this link to sign in as ${escapeHtml(email)}. It works once and expires in 24 hours.</p>
-${button(url, 'Sign in to Gloaming')}
-<p style="margin:0;color:#b2aad4;font-size:14px;">If you did not ask for this, ignore this e-mail; nobody can sign in without the link.</p>`
-	);
+	const html = renderHtml(SignInLink, { subject, url, email });
 	const text = `Use this link to sign in to Gloaming as ${email}. It works once and expires in 24 hours.
 
 ${url}

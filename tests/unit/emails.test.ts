@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { demoMails, demoRunSheet, demoScheduleChange } from '../../emails/demo';
 import { renderRunSheet, warningText } from '../../emails/run-sheet';
+import { renderInvitation } from '../../emails/invitation';
 import { renderScheduleChange } from '../../emails/schedule-change';
+import { renderSignInLink } from '../../emails/sign-in-link';
 
 const origin = 'https://gloaming.example';
 
@@ -43,7 +45,7 @@ describe('run sheet e-mail', () => {
 	it('escapes what people typed and keeps to inline styles and tables', () => {
 		const evil = renderRunSheet({ ...d, person: { name: '<script>x</script>' } });
 		expect(evil.html).not.toContain('<script>');
-		expect(evil.html).toContain('&#60;script&#62;');
+		expect(evil.html).toContain('&lt;script>x&lt;/script>');
 		expect(html).not.toMatch(/<style|<link|class=/);
 		expect(html).toContain('<table');
 	});
@@ -97,5 +99,66 @@ describe('template preview data', () => {
 			expect(m.mail.html).toMatch(/^<!doctype html>/);
 			expect(m.mail.text.length).toBeGreaterThan(40);
 		}
+	});
+});
+
+describe('what people typed, in every e-mail', () => {
+	const hostile = `<script>alert("x")</script> & 'Q'`;
+	// Svelte's escaping: < and & in text; &, " and < in attribute values.
+	const asText = `&lt;script>alert("x")&lt;/script> &amp; 'Q'`;
+	const sheet = demoRunSheet(hostile, origin);
+	const mails = {
+		'sign-in-link': renderSignInLink({ url: `${origin}/sign-in/x?a=1&b="2"`, email: hostile }),
+		invitation: renderInvitation({
+			url: `${origin}/invitations/x`,
+			venueName: hostile,
+			roleLabel: hostile,
+			invitedBy: hostile,
+			expiresOn: hostile
+		}),
+		'run-sheet': renderRunSheet({
+			...sheet,
+			person: { name: hostile },
+			address: hostile,
+			position: hostile,
+			scenes: [{ name: hostile, room: hostile, cues: [hostile], warnings: [] }],
+			checklist: [{ room: hostile, item: hostile }],
+			faults: [{ room: hostile, prop: hostile, severity: hostile, seen: hostile }],
+			safetyContacts: [{ name: hostile, role: hostile, phone: hostile, email: hostile }],
+			showStop: [hostile],
+			changes: [{ what: hostile, before: hostile, after: hostile }]
+		}),
+		'schedule-change': renderScheduleChange({
+			...demoScheduleChange(hostile, origin),
+			person: { name: hostile },
+			changes: [{ what: hostile, before: hostile, after: hostile }],
+			note: hostile
+		})
+	};
+
+	for (const [id, mail] of Object.entries(mails)) {
+		it(`${id}: is escaped in the HTML and kept as typed in the text`, () => {
+			expect(mail.html).not.toContain('<script');
+			expect(mail.html).not.toContain(hostile);
+			expect(mail.html).toContain(asText);
+			// Nothing typed closes an attribute: every quote inside one is an entity.
+			for (const [, value] of mail.html.matchAll(/\s[\w-]+="([^"]*)"/g))
+				expect(value).not.toMatch(/<|&(?!amp;|lt;|quot;|#)/);
+			expect(mail.text).toContain(hostile);
+		});
+	}
+
+	it('the sign-in link keeps its query intact inside the href', () => {
+		expect(mails['sign-in-link'].html).toContain(
+			'href="https://gloaming.example/sign-in/x?a=1&amp;b=&quot;2&quot;"'
+		);
+	});
+
+	it('the run sheet escapes it in every section', () => {
+		const html = mails['run-sheet'].html;
+		// Person, address, position, scene, room, cue, checklist room and item, fault, contact
+		// name, role, phone and e-mail, show stop, change: each at least once as text.
+		expect(html.split(asText).length - 1).toBeGreaterThanOrEqual(15);
+		expect(html).toContain('aria-label="Run sheet for &lt;script>alert(&quot;x&quot;)');
 	});
 });

@@ -1,4 +1,5 @@
-import { escapeText, foldLine, formatUtc, PRODUCT_ID } from '../schedule/ics';
+import ICAL from 'ical.js';
+import { addDetails, calendarText, newCalendar, newEvent } from '../schedule/ics';
 
 const formatters = new Map<string, Intl.DateTimeFormat>();
 
@@ -16,20 +17,27 @@ export function zoneOffsetMinutes(timeZone: string, at: Date): number {
 }
 
 /** RFC 5545 §3.3.14 UTC-OFFSET, such as -0400. */
-function utcOffset(minutes: number): string {
-	const sign = minutes < 0 ? '-' : '+';
-	const abs = Math.abs(minutes);
-	return `${sign}${String(Math.floor(abs / 60)).padStart(2, '0')}${String(abs % 60).padStart(2, '0')}`;
+function utcOffset(minutes: number): ICAL.UtcOffset {
+	return ICAL.UtcOffset.fromSeconds(minutes * 60);
 }
 
-/** RFC 5545 §3.3.5 local ("floating") date-time of an instant at a fixed offset: 19980118T230000. */
-function localStamp(at: Date, offsetMinutes: number): string {
-	return formatUtc(new Date(at.getTime() + offsetMinutes * 60_000)).replace('Z', '');
+/** The wall time of an instant at a fixed offset, as a local ("floating") DATE-TIME (§3.3.5). */
+function wallTime(at: Date, offsetMinutes: number): ICAL.Time {
+	const d = new Date(at.getTime() + offsetMinutes * 60_000);
+	return ICAL.Time.fromData({
+		year: d.getUTCFullYear(),
+		month: d.getUTCMonth() + 1,
+		day: d.getUTCDate(),
+		hour: d.getUTCHours(),
+		minute: d.getUTCMinutes(),
+		second: d.getUTCSeconds(),
+		isDate: false
+	});
 }
 
 /** Local wall time of an instant in a zone, as an RFC 5545 DATE-TIME without Z. */
 export function zonedStamp(at: Date, timeZone: string): string {
-	return localStamp(at, zoneOffsetMinutes(timeZone, at));
+	return wallTime(at, zoneOffsetMinutes(timeZone, at)).toICALString();
 }
 
 export interface OffsetChange {
@@ -64,49 +72,35 @@ export function offsetChanges(timeZone: string, from: Date, to: Date): OffsetCha
 	return changes;
 }
 
+function observance(kind: 'standard' | 'daylight', start: ICAL.Time, from: number, to: number) {
+	const c = new ICAL.Component(kind);
+	c.addPropertyWithValue('dtstart', start);
+	c.addPropertyWithValue('tzoffsetfrom', utcOffset(from));
+	c.addPropertyWithValue('tzoffsetto', utcOffset(to));
+	return c;
+}
+
 /**
  * An RFC 5545 §3.6.5 VTIMEZONE for a zone, with one observance per offset change from the start of
  * the year before `at` to the end of its year, so every instant near `at` is covered.
  */
-export function vtimezoneLines(timeZone: string, at: Date): string[] {
+export function vtimezone(timeZone: string, at: Date): ICAL.Component {
 	const year = at.getUTCFullYear();
 	const from = new Date(Date.UTC(year - 1, 0, 1));
 	const to = new Date(Date.UTC(year + 1, 0, 1));
 	const changes = offsetChanges(timeZone, from, to);
-	const lines = ['BEGIN:VTIMEZONE', `TZID:${timeZone}`];
-	if (changes.length === 0) {
-		const off = utcOffset(zoneOffsetMinutes(timeZone, at));
-		lines.push(
-			'BEGIN:STANDARD',
-			'DTSTART:19700101T000000',
-			`TZOFFSETFROM:${off}`,
-			`TZOFFSETTO:${off}`,
-			'END:STANDARD'
-		);
-	} else {
-		// The offset in force before the first change, from the start of the range.
-		const first = changes[0];
-		lines.push(
-			'BEGIN:STANDARD',
-			'DTSTART:19700101T000000',
-			`TZOFFSETFROM:${utcOffset(first.from)}`,
-			`TZOFFSETTO:${utcOffset(first.from)}`,
-			'END:STANDARD'
-		);
-		for (const c of changes) {
-			const kind = c.to > c.from ? 'DAYLIGHT' : 'STANDARD';
-			lines.push(
-				`BEGIN:${kind}`,
-				// DTSTART is the wall time the change happens at, read in the offset before it.
-				`DTSTART:${localStamp(c.at, c.from)}`,
-				`TZOFFSETFROM:${utcOffset(c.from)}`,
-				`TZOFFSETTO:${utcOffset(c.to)}`,
-				`END:${kind}`
-			);
-		}
+	const epoch = ICAL.Time.fromData({ year: 1970, month: 1, day: 1, isDate: false });
+	const vtz = new ICAL.Component('vtimezone');
+	vtz.addPropertyWithValue('tzid', timeZone);
+	// The offset in force before the first change (or always, in a zone without changes).
+	const first = changes[0]?.from ?? zoneOffsetMinutes(timeZone, at);
+	vtz.addSubcomponent(observance('standard', epoch, first, first));
+	for (const c of changes) {
+		// DTSTART is the wall time the change happens at, read in the offset before it.
+		const kind = c.to > c.from ? 'daylight' : 'standard';
+		vtz.addSubcomponent(observance(kind, wallTime(c.at, c.from), c.from, c.to));
 	}
-	lines.push('END:VTIMEZONE');
-	return lines;
+	return vtz;
 }
 
 export interface ZonedEvent {
@@ -127,32 +121,20 @@ export interface ZonedEvent {
  * zone described in a VTIMEZONE so calendar programs place it right (RFC 5545 §3.2.19, §3.6.5).
  */
 export function zonedEventCalendar(event: ZonedEvent, stamp = new Date()): string {
-	if (!event.uid) throw new RangeError('Every event needs a UID.');
-	if (!(event.end.getTime() > event.start.getTime()))
-		throw new RangeError(`Event ${event.uid} must end after it starts.`);
 	const tz = event.timeZone;
-	const lines = [
-		'BEGIN:VCALENDAR',
-		'VERSION:2.0',
-		`PRODID:${PRODUCT_ID}`,
-		'CALSCALE:GREGORIAN',
-		'METHOD:PUBLISH',
-		...vtimezoneLines(tz, event.start),
-		'BEGIN:VEVENT',
-		`UID:${escapeText(event.uid)}`,
-		`DTSTAMP:${formatUtc(stamp)}`,
-		`DTSTART;TZID=${tz}:${zonedStamp(event.start, tz)}`,
-		`DTEND;TZID=${tz}:${zonedStamp(event.end, tz)}`,
-		`SUMMARY:${escapeText(event.summary)}`
-	];
-	if (event.location) lines.push(`LOCATION:${escapeText(event.location)}`);
-	if (event.description) lines.push(`DESCRIPTION:${escapeText(event.description)}`);
-	if (event.url) lines.push(`URL:${event.url}`);
-	lines.push(
-		`STATUS:${event.cancelled ? 'CANCELLED' : 'CONFIRMED'}`,
-		`SEQUENCE:${event.sequence}`,
-		'END:VEVENT',
-		'END:VCALENDAR'
-	);
-	return lines.map(foldLine).join('\r\n') + '\r\n';
+	const vevent = newEvent(event, stamp);
+	for (const [name, at] of [
+		['dtstart', event.start],
+		['dtend', event.end]
+	] as const) {
+		const prop = new ICAL.Property(name);
+		prop.setParameter('tzid', tz);
+		prop.setValue(wallTime(at, zoneOffsetMinutes(tz, at)));
+		vevent.addProperty(prop);
+	}
+	addDetails(vevent, event);
+	const calendar = newCalendar();
+	calendar.addSubcomponent(vtimezone(tz, event.start));
+	calendar.addSubcomponent(vevent);
+	return calendarText(calendar);
 }

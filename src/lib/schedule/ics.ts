@@ -1,3 +1,4 @@
+import ICAL from 'ical.js';
 import { localDayOf, localTime, zonePlace, type Clock } from '../util/when';
 
 /** One calendar entry: a show, or one person's part in a show. */
@@ -39,94 +40,77 @@ export function showTimesText(
 }
 
 export const PRODUCT_ID = '-//Gloaming//Schedule//EN';
-const CRLF = '\r\n';
-const MAX_OCTETS = 75;
-const encoder = new TextEncoder();
 
-/** RFC 5545 §3.3.5 UTC form, such as 19970714T173000Z. */
-export function formatUtc(date: Date): string {
+// ical.js writes the files: it escapes TEXT values (RFC 5545 §3.3.11), writes CRLF line breaks and
+// folds lines by UTF-8 octets without splitting a character (§3.1). Its fold length counts the text
+// after the leading space, so 74 keeps every physical line within 75 octets.
+ICAL.foldLength = 74;
+// RFC 7986 NAME is TEXT; ical.js does not know it, and would write it unescaped.
+ICAL.design.icalendar.property.name ??= { defaultType: 'text' };
+
+/** A calendar's wrapper: VERSION, PRODID, CALSCALE, METHOD, and NAME when given. */
+export function newCalendar(name?: string): ICAL.Component {
+	const calendar = new ICAL.Component('vcalendar');
+	calendar.addPropertyWithValue('version', '2.0');
+	calendar.addPropertyWithValue('prodid', PRODUCT_ID);
+	calendar.addPropertyWithValue('calscale', 'GREGORIAN');
+	calendar.addPropertyWithValue('method', 'PUBLISH');
+	if (name) calendar.addPropertyWithValue('name', plainText(name));
+	return calendar;
+}
+
+/** The text of a calendar file: every line ends in CRLF, the last one too (RFC 5545 §3.1). */
+export function calendarText(calendar: ICAL.Component): string {
+	return calendar.toString() + '\r\n';
+}
+
+/** An instant as a UTC DATE-TIME (RFC 5545 §3.3.5 form 2, such as 19970714T173000Z). */
+export function utcTime(date: Date): ICAL.Time {
 	if (Number.isNaN(date.getTime())) throw new RangeError('Not a valid date.');
-	return date
-		.toISOString()
-		.replace(/[-:]/g, '')
-		.replace(/\.\d{3}/, '');
+	return ICAL.Time.fromJSDate(date, true);
 }
 
-/** RFC 5545 §3.3.11 TEXT escaping: backslash, semicolon, comma and line breaks. */
-export function escapeText(text: string): string {
-	return (
-		text
-			.replace(/\\/g, '\\\\')
-			.replace(/;/g, '\\;')
-			.replace(/,/g, '\\,')
-			.replace(/\r\n|\r|\n/g, '\\n')
-			// Other control characters are not allowed in TEXT.
-			// eslint-disable-next-line no-control-regex
-			.replace(/[\u0000-\u0008\u000b-\u001f\u007f]/g, '')
-	);
+/** Line breaks as one newline, and without the control characters TEXT does not allow (§3.3.11). */
+export function plainText(text: string): string {
+	// eslint-disable-next-line no-control-regex
+	return text.replace(/\r\n|\r/g, '\n').replace(/[\u0000-\u0008\u000b-\u001f\u007f]/g, '');
 }
 
-/**
- * Folds one content line to at most 75 octets per line (RFC 5545 §3.1): CRLF then a space, the
- * space counting towards the next line. Octets are UTF-8 bytes; a character is never split.
- */
-export function foldLine(line: string): string {
-	const lines: string[] = [];
-	let current = '';
-	let octets = 0;
-	for (const char of line) {
-		const size = encoder.encode(char).length;
-		if (octets + size > MAX_OCTETS) {
-			lines.push(current);
-			current = ' ';
-			octets = 1;
-		}
-		current += char;
-		octets += size;
-	}
-	lines.push(current);
-	return lines.join(CRLF);
-}
-
-/** Undoes folding: a line break followed by one space or tab is removed (RFC 5545 §3.1). */
-export function unfold(text: string): string {
-	return text.replace(/\r?\n[ \t]/g, '');
-}
-
-function eventLines(event: CalendarEvent, stamp: string): string[] {
+/** The event's checks and its common properties; the caller adds DTSTART and DTEND. */
+export function newEvent(
+	event: Pick<CalendarEvent, 'uid' | 'start' | 'end'>,
+	stamp: Date
+): ICAL.Component {
 	if (!event.uid) throw new RangeError('Every event needs a UID.');
 	if (!(event.end.getTime() > event.start.getTime())) {
 		throw new RangeError(`Event ${event.uid} must end after it starts.`);
 	}
-	const lines = [
-		'BEGIN:VEVENT',
-		`UID:${escapeText(event.uid)}`,
-		`DTSTAMP:${stamp}`,
-		`DTSTART:${formatUtc(event.start)}`,
-		`DTEND:${formatUtc(event.end)}`,
-		`SUMMARY:${escapeText(event.summary)}`
-	];
-	if (event.location) lines.push(`LOCATION:${escapeText(event.location)}`);
-	if (event.description) lines.push(`DESCRIPTION:${escapeText(event.description)}`);
-	if (event.url) lines.push(`URL:${event.url}`);
-	lines.push(`STATUS:${event.cancelled ? 'CANCELLED' : 'CONFIRMED'}`);
-	if (event.sequence !== undefined) lines.push(`SEQUENCE:${event.sequence}`);
-	lines.push('END:VEVENT');
-	return lines;
+	const vevent = new ICAL.Component('vevent');
+	vevent.addPropertyWithValue('uid', plainText(event.uid));
+	vevent.addPropertyWithValue('dtstamp', utcTime(stamp));
+	return vevent;
+}
+
+/** SUMMARY, LOCATION, DESCRIPTION, URL, STATUS and SEQUENCE, after the times. */
+export function addDetails(vevent: ICAL.Component, event: CalendarEvent): void {
+	vevent.addPropertyWithValue('summary', plainText(event.summary));
+	if (event.location) vevent.addPropertyWithValue('location', plainText(event.location));
+	if (event.description) vevent.addPropertyWithValue('description', plainText(event.description));
+	if (event.url) vevent.addPropertyWithValue('url', event.url);
+	vevent.addPropertyWithValue('status', event.cancelled ? 'CANCELLED' : 'CONFIRMED');
+	if (event.sequence !== undefined) vevent.addPropertyWithValue('sequence', event.sequence);
 }
 
 /** An RFC 5545 calendar (text/calendar) with one VEVENT per event, times in UTC. */
 export function buildCalendar(events: CalendarEvent[], options: CalendarOptions = {}): string {
-	const stamp = formatUtc(options.stamp ?? new Date());
-	const lines = [
-		'BEGIN:VCALENDAR',
-		'VERSION:2.0',
-		`PRODID:${PRODUCT_ID}`,
-		'CALSCALE:GREGORIAN',
-		'METHOD:PUBLISH'
-	];
-	if (options.name) lines.push(`NAME:${escapeText(options.name)}`);
-	for (const event of events) lines.push(...eventLines(event, stamp));
-	lines.push('END:VCALENDAR');
-	return lines.map(foldLine).join(CRLF) + CRLF;
+	const stamp = options.stamp ?? new Date();
+	const calendar = newCalendar(options.name);
+	for (const event of events) {
+		const vevent = newEvent(event, stamp);
+		vevent.addPropertyWithValue('dtstart', utcTime(event.start));
+		vevent.addPropertyWithValue('dtend', utcTime(event.end));
+		addDetails(vevent, event);
+		calendar.addSubcomponent(vevent);
+	}
+	return calendarText(calendar);
 }

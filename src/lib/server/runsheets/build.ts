@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import { listFaults } from '$lib/server/faults/records';
 import { SEVERITY_WORDS } from '$lib/faults/downtime';
 import { and, asc, eq } from 'drizzle-orm';
-import type { RunSheetData, RunSheetScene, RunSheetWarning } from '$emails/run-sheet';
+import type { RunSheetData, RunSheetScene, RunSheetWarning } from '$lib/runsheets/sheet';
 import { hazardsOf } from '$lib/props/output-maths';
 import { cueLine, responseLine } from '$lib/runsheets/cues';
 import type { SheetSummary } from '$lib/runsheets/changes';
