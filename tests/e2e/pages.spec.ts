@@ -50,6 +50,13 @@ const pages: {
 		name: 'season'
 	},
 	{
+		role: 'manager',
+		path: `${TRAIL}/seasons`,
+		follow: ['Hollow Pines Autumn 2027', 'Season report'],
+		name: 'season-report',
+		slow: true
+	},
+	{
 		role: 'owner',
 		path: `${TRAIL}/seasons`,
 		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027'],
