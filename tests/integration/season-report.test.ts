@@ -36,7 +36,8 @@ const at = (s: string) => new Date(`${s}:00Z`);
 
 /**
  * makeNight's venue (Well in the Well room, Drop in the Barn, both show-ready) with a season of
- * five nights, 18:00–22:00 UTC: 1 and 2 Oct 2026 run, 3 Oct dark, 4 Oct cancelled, one in 2099.
+ * five nights, 18:00–22:00 UTC: 1 and 2 Oct 2026 run, 3 Oct dark, 4 Oct cancelled, one in 2099,
+ * and 6 Oct dark without a show row.
  * - 1 Oct signed off; guests counted 100 then corrected to 120; 2 Oct counted 80 → 200 guests.
  * - Well: fault "stops the scene" reported 1 Oct 21:00, repaired 2 Oct 12:00, re-tested and
  *   passed 2 Oct 18:30 → down 60 + 30 = 90 of 480 show minutes.
@@ -58,7 +59,9 @@ async function seasonWith(extraProps = 0, extraNights = 0) {
 			rule: 'FREQ=DAILY;COUNT=4',
 			doorsOpen: '18:00',
 			doorsClose: '22:00',
-			crewCallMinutesBefore: 120
+			crewCallMinutesBefore: 120,
+			// Left out by the rule, so no show row: still a dark night of the season.
+			darkNights: ['2026-10-06']
 		})
 		.returning();
 	const night = (date: string, status: 'scheduled' | 'dark' | 'cancelled' = 'scheduled') => ({
@@ -200,7 +203,7 @@ describe('season report', () => {
 			scheduled: 3,
 			run: 2,
 			signedOff: 1,
-			dark: 1,
+			dark: 2,
 			cancelled: 1,
 			guests: 200,
 			counted: 2

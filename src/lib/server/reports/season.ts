@@ -56,9 +56,10 @@ const noCounts = (): SeverityCounts => ({ stops_scene: 0, degraded: 0, cosmetic:
 export async function seasonReport(
 	db: Reader,
 	venueId: string,
-	seasonId: string,
+	season: { id: string; darkNights: string[] },
 	now = new Date()
 ): Promise<SeasonReport> {
+	const seasonId = season.id;
 	const seasonShowIds = db
 		.select({ id: shows.id })
 		.from(shows)
@@ -221,7 +222,10 @@ export async function seasonReport(
 			scheduled: scheduled.length,
 			run: run.length,
 			signedOff: nightRows.filter((n) => n.signedOff).length,
-			dark: nightRows.filter((n) => n.status === 'dark').length,
+			// Nights marked dark, and the season's dark nights the rule leaves out (no show row).
+			dark:
+				nightRows.filter((n) => n.status === 'dark').length +
+				season.darkNights.filter((d) => !nightRows.some((n) => n.date === d)).length,
 			cancelled: nightRows.filter((n) => n.status === 'cancelled').length,
 			guests: counts.reduce((s, c) => s + c.guests, 0),
 			counted: counts.length

@@ -5,7 +5,7 @@ import { db } from '$lib/server/db';
 import { seasons } from '$lib/server/db/schema';
 import { seasonReport } from '$lib/server/reports/season';
 import { durationWords } from '$lib/faults/downtime';
-import { formatQuantity } from '$lib/quantity';
+import { figure, formatQuantity } from '$lib/quantity';
 import { localDay } from '$lib/util/when';
 import { INCIDENT_KIND_LABELS } from '$lib/schemas/incident-words';
 import type { PageServerLoad } from './$types';
@@ -19,11 +19,11 @@ const minutes = (m: number | null) => (m === null ? '—' : durationWords(m));
 export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event, 'owner', 'show_manager', 'designer');
 	const [season] = await db
-		.select({ id: seasons.id, name: seasons.name })
+		.select({ id: seasons.id, name: seasons.name, darkNights: seasons.darkNights })
 		.from(seasons)
 		.where(and(eq(seasons.id, event.params.season), eq(seasons.venueId, venue.id)));
 	if (!season) error(404, 'There is no such season in this venue.');
-	const r = await seasonReport(db, venue.id, season.id);
+	const r = await seasonReport(db, venue.id, season);
 	const propRow = (p: (typeof r.props)[number]) => ({
 		id: p.propId,
 		name: p.name,
@@ -37,9 +37,11 @@ export const load: PageServerLoad = async (event) => {
 		mttr: minutes(p.mttr)
 	});
 	return {
-		season,
+		season: { id: season.id, name: season.name },
 		totals: r.totals,
-		showTime: durationWords(r.showMinutes),
+		// Show time in hours: durationWords drops the hours past a day.
+		showTime:
+			r.showMinutes < 60 ? durationWords(r.showMinutes) : `${figure(r.showMinutes / 60, 4)} h`,
 		venueFigures: {
 			uptime: percent(r.venue.uptime),
 			failures: r.venue.failures,
