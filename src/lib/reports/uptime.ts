@@ -168,7 +168,7 @@ export function seasonUptime(input: {
 }
 
 /** The props with the most down minutes, most first, leaving out those never down. */
-export function mostDowntime(props: PropUptime[], n = 5): PropUptime[] {
+export function mostDowntime<T extends PropUptime>(props: T[], n = 5): T[] {
 	return props
 		.filter((p) => p.downMinutes > 0)
 		.sort((a, b) => b.downMinutes - a.downMinutes)

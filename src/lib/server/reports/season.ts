@@ -19,7 +19,7 @@ import { mostDowntime, seasonUptime, type PropUptime } from '$lib/reports/uptime
 import { notRestored } from '$lib/server/scenes/for-show';
 import type { IncidentKind } from '$lib/schemas/incident-words';
 
-type Reader = Pick<Db, 'select'>;
+type Reader = Pick<Db, 'select' | 'selectDistinctOn'>;
 const DAY = 86_400_000;
 const IN_SERVICE = new Set(['installed', 'show_ready', 'stood_down']);
 
@@ -233,7 +233,7 @@ export async function seasonReport(
 		showMinutes: uptime.showMinutes,
 		venue: uptime.venue,
 		props: named,
-		mostDown: mostDowntime(named) as typeof named,
+		mostDown: mostDowntime(named),
 		faultsByProp: [...byProp]
 			.map(([propId, c]) => ({
 				propId,
