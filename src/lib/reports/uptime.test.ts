@@ -2,8 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { mergeSpans, mostDowntime, seasonUptime, type ReportNight } from './uptime';
 
 // Definitions: availability, mean operating time between failures (MTBF) and mean time to
-// restoration (MTTR) as in IEC 60050-192 (// memory: term names recalled), measured over show
-// minutes as written at the top of uptime.ts. The worked example below is done by hand.
+// restoration (MTTR) as in IEC 60050-192 (// memory: term names recalled; "mean time to
+// restoration" is IEC 60050-191 term 191-13-08 as cited by IEC 61703), measured over show minutes
+// as written at the top of uptime.ts. The worked example below is done by hand.
 
 const at = (s: string) => new Date(`${s}:00Z`);
 const night = (id: string, d: string): ReportNight => ({

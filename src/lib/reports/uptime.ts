@@ -1,10 +1,13 @@
 // Season report maths: show minutes, downtime, uptime, mean time between failures and mean time to
 // repair, per prop and for the venue. Pure: shared by the server and the browser.
 //
-// The words follow the usual reliability-engineering terms of IEC 60050-192 (dependability):
-// availability as the share of the required time an item is able to perform, "mean operating time
-// between failures" (written MTBF here) and "mean time to restoration" (written MTTR) (// memory:
-// term names recalled, not copied from the standard). How Gloaming measures each one is its own
+// The words follow the usual reliability-engineering terms of IEC 60050-192 (dependability), which
+// replaced IEC 60050-191, where "mean time to restoration" is term 191-13-08 (as IEC 61703, the
+// standard of mathematical expressions for those terms, cites it): availability as the share of
+// the required time an item is able to perform, "mean operating time between failures" (written
+// MTBF here) and "mean time to restoration" (written MTTR) (// memory: the 192 term names are
+// recalled, not copied from the standard). Here restoration is counted from the report, so the
+// time before anyone noticed is not in it. How Gloaming measures each one is its own
 // choice, written on the report page in plain words:
 //
 // - Show minutes: the minutes between doors open and doors close of every scheduled night that
