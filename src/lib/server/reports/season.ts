@@ -167,7 +167,11 @@ export async function seasonReport(
 				.orderBy(asc(faultEvents.at))
 		: [];
 	const eventsOf = new Map<string, typeof events>();
-	for (const e of events) eventsOf.set(e.faultId, [...(eventsOf.get(e.faultId) ?? []), e]);
+	for (const e of events) {
+		const list = eventsOf.get(e.faultId);
+		if (list) list.push(e);
+		else eventsOf.set(e.faultId, [e]);
+	}
 
 	// The props in service (installed, show-ready, stood down), and any other that was down.
 	const wasDown = new Set([...stopping.map((f) => f.propId), ...downs.map((d) => d.propId)]);
