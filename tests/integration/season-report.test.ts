@@ -210,6 +210,7 @@ describe('season report', () => {
 		});
 		// Two nights of 4 h have run.
 		expect(data.showTime).toBe('8 h');
+		expect(data.hasRun).toBe(true);
 		// Venue: 2 props × 480 = 960 prop-minutes; down 90 + 240 = 330; working 630.
 		// Uptime 630 / 960 = 65.625 % → 65.6 %. One failure: MTBF 630 min = 10 h 30 min.
 		// MTTR: 1 Oct 21:00 to 2 Oct 18:30 = 21 h 30 min.

@@ -39,6 +39,7 @@ export const load: PageServerLoad = async (event) => {
 	return {
 		season: { id: season.id, name: season.name },
 		totals: r.totals,
+		hasRun: r.showMinutes > 0,
 		// Show time in hours: durationWords drops the hours past a day.
 		showTime:
 			r.showMinutes < 60 ? durationWords(r.showMinutes) : `${figure(r.showMinutes / 60, 4)} h`,
