@@ -50,6 +50,13 @@ const pages: {
 		name: 'season'
 	},
 	{
+		role: 'manager',
+		path: `${TRAIL}/seasons`,
+		follow: ['Hollow Pines Autumn 2027', 'Season report'],
+		name: 'season-report',
+		slow: true
+	},
+	{
 		role: 'owner',
 		path: `${TRAIL}/seasons`,
 		follow: ['Hollow Pines Autumn 2027', 'Fri 1 Oct 2027'],
@@ -262,4 +269,29 @@ test('the page check finds what it looks for', async ({ page }) => {
 	await expect(checkA11y(page, ['color-contrast'])).rejects.toThrow(/color-contrast/);
 	await page.evaluate(() => (document.title = ''));
 	await expect(checkA11y(page)).rejects.toThrow(/document-title/);
+});
+
+test('the season report prints without the navigation, a section a page', async ({
+	browser,
+	baseURL
+}) => {
+	const context = await browser.newContext({ baseURL, storageState: sessionFile('manager') });
+	const page = await context.newPage();
+	await page.goto(`${TRAIL}/seasons`);
+	await page.getByRole('link', { name: 'Hollow Pines Autumn 2027', exact: true }).click();
+	await page.getByRole('link', { name: 'Season report', exact: true }).click();
+	await expect(page.getByRole('heading', { level: 1 })).toContainText('Season report');
+	await page.emulateMedia({ media: 'print' });
+	await expect(page.locator('header').first()).toBeHidden();
+	await expect(page.getByRole('button', { name: 'Print' })).toBeHidden();
+	const breaks = await page
+		.locator('section')
+		.evaluateAll((all) => all.map((s) => getComputedStyle(s).breakBefore));
+	expect(breaks).toEqual(['auto', 'page', 'page', 'page', 'page']);
+	if (SCREENSHOTS)
+		await page.screenshot({
+			path: 'tests/e2e/screenshots/print-season-report.png',
+			fullPage: true
+		});
+	await context.close();
 });

@@ -196,6 +196,7 @@ const MATRIX: Record<string, Entry> = {
 		actions: { preview: 'planners', save: 'planners', remove: 'planners' }
 	},
 	'/(app)/v/[venue]/seasons/[season=uuid]/incidents.csv': { GET: 'planners' },
+	'/(app)/v/[venue]/seasons/[season=uuid]/report': { load: 'notCrew' },
 	'/(app)/v/[venue]/shows/[show=uuid]': {
 		load: 'crewIfAssigned',
 		actions: {
