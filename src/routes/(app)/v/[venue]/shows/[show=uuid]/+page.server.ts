@@ -27,6 +27,7 @@ import {
 } from '$lib/schemas/schedule';
 import { noticeRunSheetChanges } from '$lib/server/runsheets/send';
 import { guestCountSchema } from '$lib/schemas/wear';
+import type { VenueContext } from '$lib/server/auth/types';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 /** The route's show in this venue, or null. */
@@ -42,9 +43,8 @@ function refused(action: string, done: Refused, raw: Record<string, unknown>, ex
 		: fail(done.status, { action, ...extra, message: done.message });
 }
 
-/** The planner's venue, the show and the person for an action, or the failure to answer. */
-async function planned(event: RequestEvent, action: string) {
-	const venue = requireRole(event, ...PLANNERS);
+/** The show and the person for a planner's action, or the failure to answer. */
+async function planned(event: RequestEvent, venue: VenueContext, action: string) {
 	const show = await findShow(venue.id, event.params.show);
 	if (!show) return { gone: fail(404, { action, message: 'That show no longer exists.' }) };
 	return { gone: null, venue, show, personId: event.locals.person!.id };
@@ -66,7 +66,7 @@ export const load: PageServerLoad = async (event) => {
 
 export const actions: Actions = {
 	times: async (event) => {
-		const p = await planned(event, 'times');
+		const p = await planned(event, requireRole(event, ...PLANNERS), 'times');
 		if (p.gone) return p.gone;
 		const parsed = await parseForm(event.request, showTimesSchema);
 		if (!parsed.ok)
@@ -77,7 +77,7 @@ export const actions: Actions = {
 		return { action: 'times', saved: true };
 	},
 	status: async (event) => {
-		const p = await planned(event, 'status');
+		const p = await planned(event, requireRole(event, ...PLANNERS), 'status');
 		if (p.gone) return p.gone;
 		const parsed = await parseForm(event.request, showStatusSchema);
 		if (!parsed.ok) return fail(400, { action: 'status', message: 'Pick a status.' });
@@ -86,7 +86,7 @@ export const actions: Actions = {
 		return { action: 'status', saved: true };
 	},
 	assign: async (event) => {
-		const p = await planned(event, 'assign');
+		const p = await planned(event, requireRole(event, ...PLANNERS), 'assign');
 		if (p.gone) return p.gone;
 		const parsed = await parseForm(event.request, assignSchema);
 		if (!parsed.ok)
@@ -97,7 +97,7 @@ export const actions: Actions = {
 		return { action: 'assign', saved: true };
 	},
 	reassign: async (event) => {
-		const p = await planned(event, 'reassign');
+		const p = await planned(event, requireRole(event, ...PLANNERS), 'reassign');
 		if (p.gone) return p.gone;
 		const parsed = await parseForm(event.request, reassignSchema);
 		const id = typeof parsed.raw.id === 'string' ? parsed.raw.id : '';
@@ -119,7 +119,7 @@ export const actions: Actions = {
 		return { action: 'unassign', saved: true };
 	},
 	exclude: async (event) => {
-		const p = await planned(event, 'exclude');
+		const p = await planned(event, requireRole(event, ...PLANNERS), 'exclude');
 		if (p.gone) return p.gone;
 		const parsed = await parseForm(event.request, sceneExclusionSchema);
 		if (!parsed.ok) return fail(400, { action: 'exclude', message: 'Pick a scene.' });
@@ -129,7 +129,7 @@ export const actions: Actions = {
 		return { action: 'exclude', saved: true };
 	},
 	include: async (event) => {
-		const p = await planned(event, 'include');
+		const p = await planned(event, requireRole(event, ...PLANNERS), 'include');
 		if (p.gone) return p.gone;
 		const parsed = await parseForm(event.request, sceneExclusionSchema);
 		if (!parsed.ok) return fail(400, { action: 'include', message: 'Pick a scene.' });
@@ -139,7 +139,7 @@ export const actions: Actions = {
 		return { action: 'include', saved: true };
 	},
 	restore: async (event) => {
-		const p = await planned(event, 'restore');
+		const p = await planned(event, requireRole(event, ...PLANNERS), 'restore');
 		if (p.gone) return p.gone;
 		const parsed = await parseForm(event.request, restoreSchema);
 		if (!parsed.ok)
@@ -155,7 +155,7 @@ export const actions: Actions = {
 		return { action: 'restore', saved: true, propName: done.propName };
 	},
 	signOff: async (event) => {
-		const p = await planned(event, 'signOff');
+		const p = await planned(event, requireRole(event, ...PLANNERS), 'signOff');
 		if (p.gone) return p.gone;
 		const parsed = await parseForm(event.request, signOffSchema);
 		if (!parsed.ok)
@@ -173,7 +173,7 @@ export const actions: Actions = {
 		return { action: 'signOff', saved: true };
 	},
 	guests: async (event) => {
-		const p = await planned(event, 'guests');
+		const p = await planned(event, requireRole(event, ...PLANNERS), 'guests');
 		if (p.gone) return p.gone;
 		const parsed = await parseForm(event.request, guestCountSchema);
 		if (!parsed.ok)
