@@ -17,6 +17,7 @@
 import http from 'node:http';
 import { existsSync, readFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
+import { gzipSync } from 'node:zlib';
 import { ensureDependencies } from './lib/deps.mjs';
 import { LOCAL } from './lib/ports.mjs';
 import { ensurePostgres, recreateDatabase, stopPostgres } from './lib/pg.mjs';
@@ -147,6 +148,23 @@ async function signIn(email) {
 	return session;
 }
 
+/**
+ * JavaScript a page loads on first open, gzipped: every module the HTML preloads or imports.
+ * @param {string} path @param {string} cookie @returns {Promise<number>} bytes
+ */
+async function pageJs(path, cookie) {
+	const html = await (await fetch(`${origin}${path}`, { headers: { cookie } })).text();
+	const files = new Set(
+		[...html.matchAll(/["'](\/_app\/immutable\/[^"']+\.js)["']/g)].map((m) => m[1])
+	);
+	let bytes = 0;
+	for (const f of files) {
+		const body = Buffer.from(await (await fetch(`${origin}${f}`)).arrayBuffer());
+		bytes += gzipSync(body, { level: 9 }).length;
+	}
+	return bytes;
+}
+
 /** @type {[string, string, string, string][]} what, figure, floor, ratio */
 const table = [];
 const ms = (/** @type {number} */ x) => `${x < 10 ? x.toFixed(2) : x.toFixed(0)} ms`;
@@ -204,7 +222,16 @@ try {
 		["a show's checks API", `${v}/shows/${show}/checks`, crew],
 		['crew checklist page', `${page}/shows/${show}/checklist`, crew],
 		['show page', `${page}/shows/${show}`, manager],
-		['Tonight page', page, manager]
+		['Tonight page', page, manager],
+		['Tonight page, crew', page, crew],
+		['checklist print page', `${page}/shows/${show}/checklist/print`, manager],
+		['stand-down page', `${page}/shows/${show}/stand-down`, manager],
+		['incidents page', `${page}/shows/${show}/incidents`, manager],
+		['close-of-night page', `${page}/shows/${show}/close`, manager],
+		['season report page', `${page}/seasons/${big.seasonId}`, manager],
+		['sensor page (baselines)', `${page}/props/${big.propId}/sensors/${big.sensorId}`, manager],
+		['sensor live API', `${v}/props/${big.propId}/sensors/${big.sensorId}/live`, manager],
+		['prop page (maintenance due)', `${page}/props/${big.propId}`, manager]
 	];
 	/** @type {number | null} */
 	let floor = null;
@@ -228,6 +255,32 @@ try {
 		]);
 	}
 	clearInterval(sampler);
+	// Page JavaScript: main pages under 80 KB gzipped, the crew checklist under 50 KB.
+	/** @type {[string, string, string, number][]} */
+	const screens = [
+		['sign-in page', '/sign-in', '', 80],
+		['Tonight page', page, manager, 80],
+		['crew checklist page', `${page}/shows/${show}/checklist`, crew, 50],
+		['show page', `${page}/shows/${show}`, manager, 80],
+		['props page', `${page}/props`, manager, 80],
+		['scenes page', `${page}/scenes`, manager, 80],
+		['calendar page', `${page}/calendar`, manager, 80],
+		['incidents page', `${page}/shows/${show}/incidents`, manager, 80],
+		['close-of-night page', `${page}/shows/${show}/close`, manager, 80],
+		['season report page', `${page}/seasons/${big.seasonId}`, manager, 80],
+		['sensor page', `${page}/props/${big.propId}/sensors/${big.sensorId}`, manager, 80],
+		['prop page', `${page}/props/${big.propId}`, manager, 80]
+	];
+	if (!process.env.BENCH_JS_SKIP)
+		for (const [what, path, cookie, limit] of screens) {
+			const kb = (await pageJs(path, cookie)) / 1024;
+			table.push([
+				`${what}: JavaScript, gzipped vs its limit`,
+				`${kb.toFixed(0)} KB`,
+				`${limit} KB`,
+				ratio(kb, limit)
+			]);
+		}
 	table.push([
 		'app memory, peak through the requests',
 		mb(peakMemory),
