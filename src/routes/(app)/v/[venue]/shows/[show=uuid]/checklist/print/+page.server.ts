@@ -2,8 +2,7 @@ import { error } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
 import { showAccess } from '$lib/server/checklists/access';
-import { loadChecklist } from '$lib/server/checklists/state';
-import { withFreshChecklist } from '$lib/server/checklists/sync';
+import { currentChecklist } from '$lib/server/checklists/copies';
 import { localTime } from '$lib/util/when';
 import type { PageServerLoad } from './$types';
 
@@ -12,9 +11,8 @@ export const load: PageServerLoad = async (event) => {
 	const access = await showAccess(db, venue, event.locals.person!.id, event.params.show);
 	if (!access.ok) error(access.status, access.message);
 	const s = access.show;
-	const checklist = await withFreshChecklist(db, venue.id, s.id, () =>
-		loadChecklist(db, venue, s.id)
-	);
+	// The server's kept copy of the checklist, as the crew page and the checks API read it.
+	const checklist = (await currentChecklist(db, venue, s.id)).view;
 	return {
 		show: {
 			id: s.id,
