@@ -154,8 +154,9 @@ async function signIn(email) {
  */
 async function pageJs(path, cookie) {
 	const html = await (await fetch(`${origin}${path}`, { headers: { cookie } })).text();
+	// Module paths are relative in the HTML (./_app/…, ../../_app/…): keep what follows the folder.
 	const files = new Set(
-		[...html.matchAll(/["'](\/_app\/immutable\/[^"']+\.js)["']/g)].map((m) => m[1])
+		[...html.matchAll(/_app\/immutable\/[^"'\s)]+?\.js/g)].map((m) => `/${m[0]}`)
 	);
 	let bytes = 0;
 	for (const f of files) {

@@ -232,11 +232,12 @@ const limits = {
 	'checks API': 8,
 	'show page': 24,
 	'crew checklist': 8,
-	Tonight: 18,
-	'Tonight, crew': 99,
-	'print page': 99,
-	'stand-down page': 99,
-	'close-of-night page': 99
+	// Tonight's drifting sensors and their nights are read together: one statement more, one round less.
+	Tonight: 19,
+	'Tonight, crew': 14,
+	'print page': 4,
+	'stand-down page': 10,
+	'close-of-night page': 18
 };
 
 async function counted(run: () => Promise<{ status: number }>) {
@@ -280,7 +281,6 @@ describe('statements per request', () => {
 			const b = await counted(() => request(large));
 			expect({ name, writes: a.writes.map((w) => w.query) }).toEqual({ name, writes: [] });
 			expect({ name, writes: b.writes.map((w) => w.query) }).toEqual({ name, writes: [] });
-			console.log(name, a.count, b.count);
 			expect({ name, count: b.count }).toEqual({ name, count: a.count });
 			expect(b.maxParams).toBeLessThan(20);
 			expect({ name, count: b.count <= limits[name as keyof typeof limits] }).toEqual({

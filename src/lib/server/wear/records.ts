@@ -191,7 +191,10 @@ export async function outputWear(
 	venueId: string,
 	outputIds?: string[]
 ): Promise<OutputWear[]> {
-	// One round: the outputs and their maintenance are picked by a subquery on the wear settings.
+	// Most venues set no rated life: one statement then. Otherwise one more round, in which the
+	// outputs and their maintenance are picked by a subquery on the wear settings (no list of ids).
+	const settings = await latestSettings(db, venueId, outputIds);
+	if (settings.size === 0) return [];
 	const withSetting = (col: typeof outputs.id | typeof maintenanceRecords.outputId) =>
 		outputIds
 			? anyUuid(col, outputIds)
@@ -202,8 +205,7 @@ export async function outputWear(
 						.from(wearSettings)
 						.where(eq(wearSettings.venueId, venueId))
 				);
-	const [settings, outs, maint, nights] = await Promise.all([
-		latestSettings(db, venueId, outputIds),
+	const [outs, maint, nights] = await Promise.all([
 		db
 			.select({
 				id: outputs.id,
@@ -222,7 +224,6 @@ export async function outputWear(
 			.orderBy(asc(maintenanceRecords.at), asc(maintenanceRecords.id)),
 		countedNights(db, venueId)
 	]);
-	if (settings.size === 0) return [];
 	const lastOf = new Map<string, (typeof maint)[number]>();
 	for (const m of maint) lastOf.set(m.outputId, m);
 	return outs
