@@ -3,7 +3,8 @@
 // test and not part of `npm test`. Starts its own PostgreSQL (.data/pg-bench/, its own port), loads
 // the demo data and a large venue (scripts/bench/large-venue.ts), builds and starts the app, and
 // measures requests at 50 connections against a bare route (one indexed primary-key query), then
-// season expansion against rrule and capture analysis against a plain read and split. Prints one
+// season expansion against rrule and capture analysis against a plain read and split, and reads
+// each page's JavaScript from the build (scripts/bench/page-js.mjs). Prints one
 // table: what, figure, floor, ratio.
 //   BENCH_SECONDS=5   seconds per route (after a 1 s warm-up)
 //   BENCH_PROPS=2000 BENCH_SCENES=200 BENCH_PER_SCENE=3   size of the large venue
@@ -17,7 +18,6 @@
 import http from 'node:http';
 import { existsSync, readFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
-import { gzipSync } from 'node:zlib';
 import { ensureDependencies } from './lib/deps.mjs';
 import { LOCAL } from './lib/ports.mjs';
 import { ensurePostgres, recreateDatabase, stopPostgres } from './lib/pg.mjs';
@@ -148,24 +148,6 @@ async function signIn(email) {
 	return session;
 }
 
-/**
- * JavaScript a page loads on first open, gzipped: every module the HTML preloads or imports.
- * @param {string} path @param {string} cookie @returns {Promise<number>} bytes
- */
-async function pageJs(path, cookie) {
-	const html = await (await fetch(`${origin}${path}`, { headers: { cookie } })).text();
-	// Module paths are relative in the HTML (./_app/…, ../../_app/…): keep what follows the folder.
-	const files = new Set(
-		[...html.matchAll(/_app\/immutable\/[^"'\s)]+?\.js/g)].map((m) => `/${m[0]}`)
-	);
-	let bytes = 0;
-	for (const f of files) {
-		const body = Buffer.from(await (await fetch(`${origin}${f}`)).arrayBuffer());
-		bytes += gzipSync(body, { level: 9 }).length;
-	}
-	return bytes;
-}
-
 /** @type {[string, string, string, string][]} what, figure, floor, ratio */
 const table = [];
 const ms = (/** @type {number} */ x) => `${x < 10 ? x.toFixed(2) : x.toFixed(0)} ms`;
@@ -256,32 +238,6 @@ try {
 		]);
 	}
 	clearInterval(sampler);
-	// Page JavaScript: main pages under 80 KB gzipped, the crew checklist under 50 KB.
-	/** @type {[string, string, string, number][]} */
-	const screens = [
-		['sign-in page', '/sign-in', '', 80],
-		['Tonight page', page, manager, 80],
-		['crew checklist page', `${page}/shows/${show}/checklist`, crew, 50],
-		['show page', `${page}/shows/${show}`, manager, 80],
-		['props page', `${page}/props`, manager, 80],
-		['scenes page', `${page}/scenes`, manager, 80],
-		['calendar page', `${page}/calendar`, manager, 80],
-		['incidents page', `${page}/shows/${show}/incidents`, manager, 80],
-		['close-of-night page', `${page}/shows/${show}/close`, manager, 80],
-		['season report page', `${page}/seasons/${big.seasonId}`, manager, 80],
-		['sensor page', `${page}/props/${big.propId}/sensors/${big.sensorId}`, manager, 80],
-		['prop page', `${page}/props/${big.propId}`, manager, 80]
-	];
-	if (!process.env.BENCH_JS_SKIP)
-		for (const [what, path, cookie, limit] of screens) {
-			const kb = (await pageJs(path, cookie)) / 1024;
-			table.push([
-				`${what}: JavaScript, gzipped vs its limit`,
-				`${kb.toFixed(0)} KB`,
-				`${limit} KB`,
-				ratio(kb, limit)
-			]);
-		}
 	table.push([
 		'app memory, peak through the requests',
 		mb(peakMemory),
@@ -289,6 +245,37 @@ try {
 		ratio(peakMemory, idleMemory)
 	]);
 	stopChildren();
+	// Page JavaScript from the build (scripts/bench/page-js.mjs): every main page under 80 KB
+	// gzipped, the crew checklist under 50 KB; any other page over 80 KB is listed too.
+	/** @type {{ page: string, kb: number }[]} */
+	const js = nodeJson(['scripts/bench/page-js.mjs', '--json']);
+	/** @type {[string, string, number][]} folder under (app)/v/[venue] or (auth), what, limit */
+	const screens = [
+		['(auth)/sign-in', 'sign-in', 80],
+		['(app)/v/_venue_', 'Tonight', 80],
+		['(app)/v/_venue_/shows/_show_uuid_/checklist', 'crew checklist', 50],
+		['(app)/v/_venue_/shows/_show_uuid_', 'show page', 80],
+		['(app)/v/_venue_/shows/_show_uuid_/incidents', 'incidents', 80],
+		['(app)/v/_venue_/shows/_show_uuid_/close', 'close of night', 80],
+		['(app)/v/_venue_/props', 'props', 80],
+		['(app)/v/_venue_/props/_prop_uuid_', 'prop page (maintenance due)', 80],
+		['(app)/v/_venue_/props/_prop_uuid_/sensors/_sensor_uuid_', 'sensor page', 80],
+		['(app)/v/_venue_/props/_prop_uuid_/outputs/_output_uuid_', 'output page', 80],
+		['(app)/v/_venue_/scenes/_scene_uuid_', 'scene editor', 80],
+		['(app)/v/_venue_/calendar', 'calendar', 80],
+		['(app)/v/_venue_/seasons/_season_uuid_', 'season report', 80]
+	];
+	for (const r of js) {
+		const named = screens.find(([dir]) => dir === r.page);
+		if (!named && r.kb <= 80) continue;
+		const [, what, limit] = named ?? [r.page, r.page, 80];
+		table.push([
+			`page JavaScript, gzipped: ${what} vs its limit`,
+			`${r.kb.toFixed(1)} KB`,
+			`${limit} KB`,
+			ratio(r.kb, limit)
+		]);
+	}
 	if (!process.env.BENCH_ROUTES_ONLY) {
 		console.log('[bench] season expansion…');
 		const season = nodeJson(['--import', 'tsx', 'scripts/bench/season.ts']);

@@ -133,6 +133,22 @@ export async function syncClose(db: Db, venueId: string, showId: string) {
 	});
 }
 
+/**
+ * The night's close list, up to date: compared with its inputs while it is read, and read again
+ * only when they differed (then brought up to date under the show's lock first).
+ */
+export async function freshClose(db: Db, venueId: string, showId: string) {
+	const [diff, state] = await Promise.all([
+		closeDiff(db, venueId, showId),
+		loadClose(db, venueId, showId)
+	]);
+	if (!diff) return state;
+	await db.transaction(async (tx) => {
+		if (await lockShow(tx, venueId, showId)) await syncLocked(tx, venueId, showId);
+	});
+	return loadClose(db, venueId, showId);
+}
+
 export interface CloseLine {
 	id: string;
 	key: string;
