@@ -3,7 +3,7 @@
 // note by show managers and owners. Every step is a new row (incidents and incident_events are
 // append-only), written with its Activity line in one transaction, under the incident's row lock.
 import { and, asc, eq, sql } from 'drizzle-orm';
-import { anyUuid } from '$lib/server/db/any';
+import { anyText, anyUuid } from '$lib/server/db/any';
 import type { z } from 'zod';
 import { wallToInstant } from '$lib/schedule';
 import type { Role } from '$lib/roles';
@@ -324,7 +324,7 @@ export async function listIncidents(
 			? db
 					.select({ id: users.id, name: users.name, email: users.email })
 					.from(users)
-					.where(anyUuid(users.id, people))
+					.where(anyText(users.id, people))
 			: []
 	]);
 	const nameOf = new Map(names.map((p) => [p.id, p.name ?? p.email]));
