@@ -290,6 +290,21 @@ describe('statements per request', () => {
 		}
 	});
 
+	it('prints every live check of the night, in words, from the kept copy', async () => {
+		const v = await venueWith(4, 2);
+		const answer = await requests['print page'](v);
+		const body = answer.body as {
+			rooms: { name: string; checks: { label: string; detail: string | null; result: string }[] }[];
+		};
+		const lines = body.rooms.flatMap((r) => r.checks);
+		expect(lines).toHaveLength((await liveChecks(v.show.id)).length);
+		// Nothing recorded yet: every line shows the blanks to fill in.
+		expect(lines.find((l) => l.label === 'Prop 0000: Plate sensor test')).toBeDefined();
+		expect(
+			lines.filter((l) => !['pass / fail', 'idle ______ present ______'].includes(l.result))
+		).toEqual([]);
+	});
+
 	it('regenerates a checklist once after its inputs change, then reads without writing', async () => {
 		const v = await venueWith(2, 1);
 		await counted(() => requests['checks API'](v));
