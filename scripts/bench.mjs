@@ -3,7 +3,8 @@
 // test and not part of `npm test`. Starts its own PostgreSQL (.data/pg-bench/, its own port), loads
 // the demo data and a large venue (scripts/bench/large-venue.ts), builds and starts the app, and
 // measures requests at 50 connections against a bare route (one indexed primary-key query), then
-// season expansion against rrule and capture analysis against a plain read and split. Prints one
+// season expansion against rrule and capture analysis against a plain read and split, and reads
+// each page's JavaScript from the build (scripts/bench/page-js.mjs). Prints one
 // table: what, figure, floor, ratio.
 //   BENCH_SECONDS=5   seconds per route (after a 1 s warm-up)
 //   BENCH_PROPS=2000 BENCH_SCENES=200 BENCH_PER_SCENE=3   size of the large venue
@@ -204,7 +205,16 @@ try {
 		["a show's checks API", `${v}/shows/${show}/checks`, crew],
 		['crew checklist page', `${page}/shows/${show}/checklist`, crew],
 		['show page', `${page}/shows/${show}`, manager],
-		['Tonight page', page, manager]
+		['Tonight page', page, manager],
+		['Tonight page, crew', page, crew],
+		['checklist print page', `${page}/shows/${show}/checklist/print`, manager],
+		['stand-down page', `${page}/shows/${show}/stand-down`, manager],
+		['incidents page', `${page}/shows/${show}/incidents`, manager],
+		['close-of-night page', `${page}/shows/${show}/close`, manager],
+		['season report page', `${page}/seasons/${big.seasonId}`, manager],
+		['sensor page (baselines)', `${page}/props/${big.propId}/sensors/${big.sensorId}`, manager],
+		['sensor live API', `${v}/props/${big.propId}/sensors/${big.sensorId}/live`, manager],
+		['prop page (maintenance due)', `${page}/props/${big.propId}`, manager]
 	];
 	/** @type {number | null} */
 	let floor = null;
@@ -235,6 +245,37 @@ try {
 		ratio(peakMemory, idleMemory)
 	]);
 	stopChildren();
+	// Page JavaScript from the build (scripts/bench/page-js.mjs): every main page under 80 KB
+	// gzipped, the crew checklist under 50 KB; any other page over 80 KB is listed too.
+	/** @type {{ page: string, kb: number }[]} */
+	const js = nodeJson(['scripts/bench/page-js.mjs', '--json']);
+	/** @type {[string, string, number][]} folder under (app)/v/[venue] or (auth), what, limit */
+	const screens = [
+		['(auth)/sign-in', 'sign-in', 80],
+		['(app)/v/_venue_', 'Tonight', 80],
+		['(app)/v/_venue_/shows/_show_uuid_/checklist', 'crew checklist', 50],
+		['(app)/v/_venue_/shows/_show_uuid_', 'show page', 80],
+		['(app)/v/_venue_/shows/_show_uuid_/incidents', 'incidents', 80],
+		['(app)/v/_venue_/shows/_show_uuid_/close', 'close of night', 80],
+		['(app)/v/_venue_/props', 'props', 80],
+		['(app)/v/_venue_/props/_prop_uuid_', 'prop page (maintenance due)', 80],
+		['(app)/v/_venue_/props/_prop_uuid_/sensors/_sensor_uuid_', 'sensor page', 80],
+		['(app)/v/_venue_/props/_prop_uuid_/outputs/_output_uuid_', 'output page', 80],
+		['(app)/v/_venue_/scenes/_scene_uuid_', 'scene editor', 80],
+		['(app)/v/_venue_/calendar', 'calendar', 80],
+		['(app)/v/_venue_/seasons/_season_uuid_', 'season report', 80]
+	];
+	for (const r of js) {
+		const named = screens.find(([dir]) => dir === r.page);
+		if (!named && r.kb <= 80) continue;
+		const [, what, limit] = named ?? [r.page, r.page, 80];
+		table.push([
+			`page JavaScript, gzipped: ${what} vs its limit`,
+			`${r.kb.toFixed(1)} KB`,
+			`${limit} KB`,
+			ratio(r.kb, limit)
+		]);
+	}
 	if (!process.env.BENCH_ROUTES_ONLY) {
 		console.log('[bench] season expansion…');
 		const season = nodeJson(['--import', 'tsx', 'scripts/bench/season.ts']);

@@ -17,6 +17,7 @@ import {
 	sceneCues,
 	sceneResponses,
 	scenes,
+	seasons,
 	sensors,
 	shows,
 	users,
@@ -67,9 +68,10 @@ async function insertAll<T, R>(rows: T[], insert: (part: T[]) => Promise<R[]>): 
 const [existing] = await db.select().from(venues).where(eq(venues.slug, SLUG));
 let venueId = existing?.id;
 let showId: string | undefined;
+let seasonId: string | null | undefined;
 if (existing) {
-	[{ id: showId }] = await db
-		.select({ id: shows.id })
+	[{ id: showId, seasonId }] = await db
+		.select({ id: shows.id, seasonId: shows.seasonId })
 		.from(shows)
 		.where(eq(shows.venueId, existing.id));
 } else {
@@ -166,11 +168,26 @@ if (existing) {
 		);
 		// Crew call an hour from now, doors an hour later: tonight's show.
 		const start = Date.now() + 3_600_000;
+		const date = new Date(start).toISOString().slice(0, 10);
+		const [season] = await tx
+			.insert(seasons)
+			.values({
+				venueId: venue.id,
+				name: 'Bench season',
+				firstNight: date,
+				rule: 'FREQ=DAILY;COUNT=1',
+				doorsOpen: '19:00',
+				doorsClose: '23:00',
+				crewCallMinutesBefore: 60
+			})
+			.returning();
+		seasonId = season.id;
 		const [show] = await tx
 			.insert(shows)
 			.values({
 				venueId: venue.id,
-				date: new Date(start).toISOString().slice(0, 10),
+				seasonId: season.id,
+				date,
 				crewCall: new Date(start),
 				doorsOpen: new Date(start + 3_600_000),
 				doorsClose: new Date(start + 5 * 3_600_000)
@@ -189,7 +206,23 @@ if (existing) {
 		});
 	});
 }
+// One prop and its sensor, for the sensor page and its live API.
+const [first] = await db
+	.select({ propId: sensors.propId, sensorId: sensors.id })
+	.from(sensors)
+	.where(eq(sensors.venueId, venueId!))
+	.limit(1);
 await sql.end();
 console.log(
-	JSON.stringify({ slug: SLUG, venueId, showId, props: propCount, scenes: sceneCount, perScene })
+	JSON.stringify({
+		slug: SLUG,
+		venueId,
+		showId,
+		seasonId,
+		propId: first?.propId,
+		sensorId: first?.sensorId,
+		props: propCount,
+		scenes: sceneCount,
+		perScene
+	})
 );

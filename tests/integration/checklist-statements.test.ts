@@ -37,6 +37,12 @@ const showPage = await import('../../src/routes/(app)/v/[venue]/shows/[show=uuid
 const crewPage =
 	await import('../../src/routes/(app)/v/[venue]/shows/[show=uuid]/checklist/+page.server');
 const tonight = await import('../../src/routes/(app)/v/[venue]/+page.server');
+const printPage =
+	await import('../../src/routes/(app)/v/[venue]/shows/[show=uuid]/checklist/print/+page.server');
+const standDownPage =
+	await import('../../src/routes/(app)/v/[venue]/shows/[show=uuid]/stand-down/+page.server');
+const closePage =
+	await import('../../src/routes/(app)/v/[venue]/shows/[show=uuid]/close/+page.server');
 
 const led = {
 	kind: 'led_string' as const,
@@ -189,6 +195,30 @@ const requests = {
 			path: `/v/${v.venue.slug}`,
 			params: { venue: v.venue.slug },
 			person: v.manager
+		}),
+	'Tonight, crew': (v: Setup) =>
+		callHandler(tonight.load as never, {
+			path: `/v/${v.venue.slug}`,
+			params: { venue: v.venue.slug },
+			person: v.crew
+		}),
+	'print page': (v: Setup) =>
+		callHandler(printPage.load as never, {
+			path: `/v/${v.venue.slug}/shows/${v.show.id}/checklist/print`,
+			params: { venue: v.venue.slug, show: v.show.id },
+			person: v.crew
+		}),
+	'stand-down page': (v: Setup) =>
+		callHandler(standDownPage.load as never, {
+			path: `/v/${v.venue.slug}/shows/${v.show.id}/stand-down`,
+			params: { venue: v.venue.slug, show: v.show.id },
+			person: v.manager
+		}),
+	'close-of-night page': (v: Setup) =>
+		callHandler(closePage.load as never, {
+			path: `/v/${v.venue.slug}/shows/${v.show.id}/close`,
+			params: { venue: v.venue.slug, show: v.show.id },
+			person: v.manager
 		})
 };
 
@@ -196,7 +226,19 @@ const requests = {
 // downs and sign-off (4), the access check (2) and the freshness check (1) on the checklist
 // routes; the show page and Tonight add their crew, scenes and delivery reads, all in parallel; Tonight
 // also reads the venue's open faults (one statement when there are none).
-const limits = { 'checks API': 8, 'show page': 24, 'crew checklist': 8, Tonight: 18 };
+// The print and stand-down pages read the kept copy as the crew page does; the close-of-night page
+// compares its stored list with its inputs and writes only when they differ (its first read).
+const limits = {
+	'checks API': 8,
+	'show page': 24,
+	'crew checklist': 8,
+	// Tonight's drifting sensors and their nights are read together: one statement more, one round less.
+	Tonight: 19,
+	'Tonight, crew': 14,
+	'print page': 4,
+	'stand-down page': 10,
+	'close-of-night page': 18
+};
 
 async function counted(run: () => Promise<{ status: number }>) {
 	seen.statements.length = 0;
@@ -228,6 +270,11 @@ describe('statements per request', () => {
 		expect(await liveChecks(large.show.id)).toHaveLength(606);
 		expect(first.maxParams).toBeLessThanOrEqual(500 * 16);
 		await counted(() => requests['crew checklist'](small));
+		// The close list is stored on its first read; later reads write nothing.
+		expect(
+			(await counted(() => requests['close-of-night page'](large))).writes.length
+		).toBeGreaterThan(0);
+		await counted(() => requests['close-of-night page'](small));
 
 		for (const [name, request] of Object.entries(requests)) {
 			const a = await counted(() => request(small));
@@ -241,6 +288,21 @@ describe('statements per request', () => {
 				count: true
 			});
 		}
+	});
+
+	it('prints every live check of the night, in words, from the kept copy', async () => {
+		const v = await venueWith(4, 2);
+		const answer = await requests['print page'](v);
+		const body = answer.body as {
+			rooms: { name: string; checks: { label: string; detail: string | null; result: string }[] }[];
+		};
+		const lines = body.rooms.flatMap((r) => r.checks);
+		expect(lines).toHaveLength((await liveChecks(v.show.id)).length);
+		// Nothing recorded yet: every line shows the blanks to fill in.
+		expect(lines.find((l) => l.label === 'Prop 0000: Plate sensor test')).toBeDefined();
+		expect(
+			lines.filter((l) => !['pass / fail', 'idle ______ present ______'].includes(l.result))
+		).toEqual([]);
 	});
 
 	it('regenerates a checklist once after its inputs change, then reads without writing', async () => {

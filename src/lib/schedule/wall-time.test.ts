@@ -17,6 +17,8 @@ describe('venue wall time for the calendar', () => {
 		expect(offsetText('Europe/London', new Date('2027-07-01T12:00:00Z'))).toBe('+01:00');
 		expect(offsetText('Europe/London', new Date('2027-12-01T12:00:00Z'))).toBe('+00:00');
 		expect(offsetText('America/New_York', new Date('2027-12-01T12:00:00Z'))).toBe('-05:00');
+		// IANA tz database: India Standard Time is UTC+05:30 all year
+		expect(offsetText('Asia/Kolkata', new Date('2027-12-01T12:00:00Z'))).toBe('+05:30');
 		// 02:00 UTC on 2 Oct is still 1 Oct evening in New York.
 		expect(dateIn('America/New_York', new Date('2027-10-02T02:00:00Z'))).toBe('2027-10-01');
 		expect(dateIn('Pacific/Auckland', new Date('2027-10-02T02:00:00Z'))).toBe('2027-10-02');

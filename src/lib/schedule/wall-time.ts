@@ -1,5 +1,3 @@
-import { formatInTimeZone } from 'date-fns-tz';
-
 const DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
 const TIME = /^([01]\d|2[0-3]):([0-5]\d)$/;
 const DAY_MS = 86_400_000;
@@ -167,7 +165,11 @@ export function wallText(instant: Date | string, timeZone: string): string {
 
 /** A time zone's offset from UTC at an instant, as '+HH:MM' or '-HH:MM'. */
 export function offsetText(timeZone: string, at: Date = new Date()): string {
-	return formatInTimeZone(at, timeZone, 'xxx');
+	// From the zone's offset this module works out already, so the calendar page ships no date library.
+	const minutes = Math.round(zoneOffsetMs(timeZone, at.getTime()) / 60_000);
+	const a = Math.abs(minutes);
+	const two = (n: number) => String(n).padStart(2, '0');
+	return `${minutes < 0 ? '-' : '+'}${two(Math.floor(a / 60))}:${two(a % 60)}`;
 }
 
 /** The date on the wall calendar of a time zone at an instant, 'YYYY-MM-DD'. */

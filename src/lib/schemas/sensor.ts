@@ -70,7 +70,4 @@ export const sensorSchema = z.object({
 });
 export type SensorInput = z.infer<typeof sensorSchema>;
 
-/** Speed of sound in dry air from its temperature, m/s: 331.3 * sqrt(1 + T/273.15). */
-export function speedOfSound(airTempC: number): number {
-	return 331.3 * Math.sqrt(1 + airTempC / 273.15);
-}
+export { speedOfSound } from '$lib/props/sound';

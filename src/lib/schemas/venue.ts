@@ -2,12 +2,9 @@ import { z } from 'zod';
 import { isTimeZone } from '$lib/schedule/wall-time';
 import { CLOCKS } from '$lib/util/when';
 
-export const VENUE_KINDS = ['haunt', 'trail', 'exhibit'] as const;
-export const VENUE_KIND_LABELS: Record<(typeof VENUE_KINDS)[number], string> = {
-	haunt: 'Haunted attraction',
-	trail: 'Seasonal trail',
-	exhibit: 'Interactive exhibit'
-};
+import { VENUE_KINDS, VENUE_KIND_LABELS } from './venue-words';
+// The words live apart from zod, so pages that only show them do not ship the validation library.
+export { VENUE_KINDS, VENUE_KIND_LABELS };
 
 /** A known IANA zone named by region (Europe/London), or UTC; bare abbreviations are refused. */
 export function isVenueTimeZone(tz: string): boolean {

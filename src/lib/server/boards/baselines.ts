@@ -1,4 +1,4 @@
-import { sql } from 'drizzle-orm';
+import { sql, type SQL } from 'drizzle-orm';
 import type { Db } from '$lib/server/db/client';
 import { judgeBaseline, type BaselineState } from '$lib/calibration/baseline-trend';
 import type { SensorCalibration } from '$lib/server/db/schema';
@@ -24,20 +24,20 @@ export interface NightBaseline {
 }
 
 /**
- * The nightly baselines of these sensors, for the venue's shows on or before `upTo` (a local date)
+ * The nightly baselines of these sensors (a list of ids, passed as one array parameter, or a
+ * subquery of their ids), for the venue's shows on or before `upTo` (a local date)
  * and from `from`, oldest first (either may be left out). Nights with no idle minutes in the window have no row.
  */
 export async function nightlyBaselines(
 	db: Db,
 	venueId: string,
-	sensorIds: string[],
+	sensorIds: string[] | SQL,
 	{ upTo, from }: { upTo?: string; from?: string }
 ): Promise<NightBaseline[]> {
-	if (!sensorIds.length) return [];
-	const ids = sql.join(
-		sensorIds.map((id) => sql`${id}::uuid`),
-		sql`, `
-	);
+	if (Array.isArray(sensorIds) && !sensorIds.length) return [];
+	const which = Array.isArray(sensorIds)
+		? sql`s.id = any(${`{${sensorIds.join(',')}}`}::uuid[])`
+		: sql`s.id in (${sensorIds})`;
 	const rows = (await db.execute(sql`
 		select sh.id as show_id, sh.date::text as date, s.id as sensor_id,
 			sum(m.count * m.mean) / sum(m.count) as baseline, sum(m.count)::int as readings
@@ -46,7 +46,7 @@ export async function nightlyBaselines(
 		join reading_minutes m on m.sensor_id = s.id and m.venue_id = s.venue_id
 			and m.minute >= sh.doors_open - make_interval(mins => ${BASELINE_WINDOW_MINUTES})
 			and m.minute < sh.doors_open
-		where sh.venue_id = ${venueId} and s.id in (${ids})
+		where sh.venue_id = ${venueId} and ${which}
 			and sh.status = 'scheduled'
 			${upTo ? sql`and sh.date <= ${upTo}::date` : sql``}
 			${from ? sql`and sh.date >= ${from}::date` : sql``}
@@ -143,27 +143,31 @@ export async function baselineAlerts(
 	const from = new Date(Date.parse(show.date) - SEASON_DAYS * 86_400_000)
 		.toISOString()
 		.slice(0, 10);
-	// Only sensors whose boards have sent anything this season: one index probe each.
-	const list = (await db.execute(sql`
-		select s.id, s.name, s.calibration, p.id as prop_id, p.name as prop_name
-		from sensors s join props p on p.id = s.prop_id and p.venue_id = s.venue_id
-		where s.venue_id = ${venueId} and s.calibration is not null
-			and exists (select 1 from reading_minutes m
-				where m.sensor_id = s.id and m.minute >= ${from}::date - 1)
-		order by p.name, s.name`)) as unknown as {
-		id: string;
-		name: string;
-		calibration: SensorCalibration;
-		prop_id: string;
-		prop_name: string;
-	}[];
+	// Only sensors whose boards have sent anything this season: one index probe each. The list and
+	// the nights are read together, the nights' sensors picked by the same condition.
+	const recent = sql`s.venue_id = ${venueId} and s.calibration is not null
+		and exists (select 1 from reading_minutes m
+			where m.sensor_id = s.id and m.venue_id = s.venue_id and m.minute >= ${from}::date - 1)`;
+	const [list, nights] = await Promise.all([
+		db.execute(sql`
+			select s.id, s.name, s.calibration, p.id as prop_id, p.name as prop_name
+			from sensors s join props p on p.id = s.prop_id and p.venue_id = s.venue_id
+			where ${recent}
+			order by p.name, s.name`) as unknown as Promise<
+			{
+				id: string;
+				name: string;
+				calibration: SensorCalibration;
+				prop_id: string;
+				prop_name: string;
+			}[]
+		>,
+		nightlyBaselines(db, venueId, sql`select s.id from sensors s where ${recent}`, {
+			upTo: show.date,
+			from
+		})
+	]);
 	if (!list.length) return [];
-	const nights = await nightlyBaselines(
-		db,
-		venueId,
-		list.map((s) => s.id),
-		{ upTo: show.date, from }
-	);
 	const out: BaselineAlert[] = [];
 	for (const s of list) {
 		const j = judgeNights(nights, s.id, show.id, s.calibration);

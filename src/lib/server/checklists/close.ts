@@ -2,7 +2,8 @@
 // the maintenance due, stored by key in close_checks so ticks stay with their line, worked by the
 // night's crew and closed by a show manager's close sign-off. Ticks and the sign-off are
 // append-only; a signed close is frozen as it was signed.
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
+import { anyUuid } from '$lib/server/db/any';
 import type { Db } from '$lib/server/db/client';
 import {
 	closeChecks,
@@ -66,16 +67,17 @@ async function closeSigned(db: Reader, venueId: string, showId: string) {
 	return row ?? null;
 }
 
-/** Make the stored close list match its inputs, under the show's lock; a signed close is left. */
-async function syncLocked(tx: Tx, venueId: string, showId: string) {
-	if (await closeSigned(tx, venueId, showId)) return;
-	const [specs, stored] = await Promise.all([
+/** What the stored close list lacks or has too many of against its inputs; null once signed. */
+async function closeDiff(tx: Reader, venueId: string, showId: string) {
+	const [signed, specs, stored] = await Promise.all([
+		closeSigned(tx, venueId, showId),
 		closeSpecs(tx, venueId, showId),
 		tx
 			.select()
 			.from(closeChecks)
 			.where(and(eq(closeChecks.venueId, venueId), eq(closeChecks.showId, showId)))
 	]);
+	if (signed) return null;
 	const byKey = new Map(stored.map((c) => [c.key, c]));
 	const changed = specs.filter((s) => {
 		const r = byKey.get(s.key);
@@ -88,10 +90,21 @@ async function syncLocked(tx: Tx, venueId: string, showId: string) {
 			r.roomId !== s.roomId
 		);
 	});
-	if (changed.length)
+	const wanted = new Set(specs.map((s) => s.key));
+	const gone = stored.filter((c) => c.removedAt === null && !wanted.has(c.key)).map((c) => c.id);
+	return changed.length || gone.length ? { changed, gone } : null;
+}
+
+/** Make the stored close list match its inputs, under the show's lock; a signed close is left. */
+async function syncLocked(tx: Tx, venueId: string, showId: string) {
+	const diff = await closeDiff(tx, venueId, showId);
+	if (!diff) return;
+	const { changed, gone } = diff;
+	// In slices, so no statement passes PostgreSQL's parameter limit however many lines there are.
+	for (let i = 0; i < changed.length; i += 500)
 		await tx
 			.insert(closeChecks)
-			.values(changed.map((s) => ({ ...s, venueId, showId, removedAt: null })))
+			.values(changed.slice(i, i + 500).map((s) => ({ ...s, venueId, showId, removedAt: null })))
 			.onConflictDoUpdate({
 				target: [closeChecks.showId, closeChecks.key],
 				set: {
@@ -102,19 +115,38 @@ async function syncLocked(tx: Tx, venueId: string, showId: string) {
 					removedAt: null
 				}
 			});
-	const wanted = new Set(specs.map((s) => s.key));
-	const gone = stored.filter((c) => c.removedAt === null && !wanted.has(c.key)).map((c) => c.id);
 	if (gone.length)
 		await tx
 			.update(closeChecks)
 			.set({ removedAt: new Date() })
-			.where(and(eq(closeChecks.venueId, venueId), inArray(closeChecks.id, gone)));
+			.where(and(eq(closeChecks.venueId, venueId), anyUuid(closeChecks.id, gone)));
 }
 
+/**
+ * Bring the close list up to date with its inputs. Read first, without a lock: when nothing
+ * changed (every read after the first) nothing is written and no lock is taken.
+ */
 export async function syncClose(db: Db, venueId: string, showId: string) {
+	if (!(await closeDiff(db, venueId, showId))) return;
 	await db.transaction(async (tx) => {
 		if (await lockShow(tx, venueId, showId)) await syncLocked(tx, venueId, showId);
 	});
+}
+
+/**
+ * The night's close list, up to date: compared with its inputs while it is read, and read again
+ * only when they differed (then brought up to date under the show's lock first).
+ */
+export async function freshClose(db: Db, venueId: string, showId: string) {
+	const [diff, state] = await Promise.all([
+		closeDiff(db, venueId, showId),
+		loadClose(db, venueId, showId)
+	]);
+	if (!diff) return state;
+	await db.transaction(async (tx) => {
+		if (await lockShow(tx, venueId, showId)) await syncLocked(tx, venueId, showId);
+	});
+	return loadClose(db, venueId, showId);
 }
 
 export interface CloseLine {

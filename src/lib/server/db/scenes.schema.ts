@@ -77,7 +77,11 @@ export const sceneCues = pgTable(
 		action: jsonb('action').$type<CueAction>().notNull(),
 		createdAt: createdAt()
 	},
-	(t) => [index('scene_cues_scene').on(t.sceneId, t.startMs)]
+	(t) => [
+		index('scene_cues_scene').on(t.sceneId, t.startMs),
+		// A venue's cues (wear counters) and an output's cues (the prop page's scenes).
+		index('scene_cues_venue_output').on(t.venueId, t.outputId)
+	]
 );
 
 /** A live link from a sensor's depth to an output's level. */
@@ -104,7 +108,12 @@ export const sceneResponses = pgTable(
 		maxLevel: doublePrecision('max_level').notNull().default(1),
 		createdAt: createdAt()
 	},
-	(t) => [index('scene_responses_scene').on(t.sceneId)]
+	(t) => [
+		index('scene_responses_scene').on(t.sceneId),
+		// A venue's responses (wear counters), an output's and a sensor's (the prop page's scenes).
+		index('scene_responses_venue_output').on(t.venueId, t.outputId),
+		index('scene_responses_venue_sensor').on(t.venueId, t.sensorId)
+	]
 );
 
 /** Scenes left out of one show (by default every scene with runsOnShowNights runs every show). */

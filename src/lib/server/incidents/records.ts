@@ -2,7 +2,8 @@
 // followed up by show managers, owners and the incident's follow-up owner, closed with a closing
 // note by show managers and owners. Every step is a new row (incidents and incident_events are
 // append-only), written with its Activity line in one transaction, under the incident's row lock.
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
+import { anyText, anyUuid } from '$lib/server/db/any';
 import type { z } from 'zod';
 import { wallToInstant } from '$lib/schedule';
 import type { Role } from '$lib/roles';
@@ -300,7 +301,7 @@ export async function listIncidents(
 		.where(
 			and(
 				eq(incidents.venueId, venueId),
-				inArray(incidents.showId, opts.showIds),
+				anyUuid(incidents.showId, opts.showIds),
 				opts.followUpBy ? eq(incidents.followUpBy, opts.followUpBy) : undefined
 			)
 		)
@@ -317,13 +318,13 @@ export async function listIncidents(
 			.select({ event: incidentEvents, by: users.name, email: users.email })
 			.from(incidentEvents)
 			.leftJoin(users, eq(users.id, incidentEvents.personId))
-			.where(and(eq(incidentEvents.venueId, venueId), inArray(incidentEvents.incidentId, ids)))
+			.where(and(eq(incidentEvents.venueId, venueId), anyUuid(incidentEvents.incidentId, ids)))
 			.orderBy(asc(incidentEvents.at)),
 		people.length
 			? db
 					.select({ id: users.id, name: users.name, email: users.email })
 					.from(users)
-					.where(inArray(users.id, people))
+					.where(anyText(users.id, people))
 			: []
 	]);
 	const nameOf = new Map(names.map((p) => [p.id, p.name ?? p.email]));
@@ -389,7 +390,7 @@ export async function incidentCounts(db: Db, venueId: string, showIds: string[])
 			)))::int`
 		})
 		.from(incidents)
-		.where(and(eq(incidents.venueId, venueId), inArray(incidents.showId, showIds)))
+		.where(and(eq(incidents.venueId, venueId), anyUuid(incidents.showId, showIds)))
 		.groupBy(incidents.showId);
 	for (const r of rows) out.set(r.showId, { total: r.total, open: r.open });
 	return out;

@@ -1,4 +1,5 @@
 import { and, eq, inArray } from 'drizzle-orm';
+import { groupBy } from '$lib/util/group';
 import type { Db } from '$lib/server/db/client';
 import {
 	outputs,
@@ -13,16 +14,6 @@ import { toOutputModel, toSceneModel, type LoadedScene } from './model';
 import { nightPropIds, nightSceneIds, notRestored, type ShowScene } from './for-show';
 
 type Reader = Pick<Db, 'select' | 'selectDistinct'>;
-
-function groupBy<T>(rows: T[], key: (row: T) => string) {
-	const m = new Map<string, T[]>();
-	for (const r of rows) {
-		const list = m.get(key(r));
-		if (list) list.push(r);
-		else m.set(key(r), [r]);
-	}
-	return m;
-}
 
 export type NightScene = ShowScene & LoadedScene;
 

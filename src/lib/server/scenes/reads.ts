@@ -1,5 +1,6 @@
 /** Reading scenes: what a venue offers a scene, the scene list, analyses, history and JSON. */
-import { and, asc, desc, eq, inArray } from 'drizzle-orm';
+import { and, asc, desc, eq } from 'drizzle-orm';
+import { anyUuid } from '$lib/server/db/any';
 import type { Db } from '$lib/server/db/client';
 import {
 	controllers,
@@ -222,16 +223,31 @@ export function sceneJson(loaded: LoadedScene) {
 /** Scenes that use any of these outputs (for a prop page's "Scenes" links). */
 export async function scenesUsingOutputs(db: Db, venueId: string, outputIds: string[]) {
 	if (!outputIds.length) return [];
-	const rows = await db
-		.selectDistinct({ id: scenes.id, name: scenes.name })
-		.from(scenes)
-		.innerJoin(sceneCues, eq(sceneCues.sceneId, scenes.id))
-		.where(and(eq(scenes.venueId, venueId), inArray(sceneCues.outputId, outputIds)));
-	const viaResponses = await db
-		.selectDistinct({ id: scenes.id, name: scenes.name })
-		.from(scenes)
-		.innerJoin(sceneResponses, eq(sceneResponses.sceneId, scenes.id))
-		.where(and(eq(scenes.venueId, venueId), inArray(sceneResponses.outputId, outputIds)));
+	// Both at once, each through its (venue_id, output_id) index; the ids as one array parameter.
+	const [rows, viaResponses] = await Promise.all([
+		db
+			.selectDistinct({ id: scenes.id, name: scenes.name })
+			.from(scenes)
+			.innerJoin(sceneCues, eq(sceneCues.sceneId, scenes.id))
+			.where(
+				and(
+					eq(scenes.venueId, venueId),
+					eq(sceneCues.venueId, venueId),
+					anyUuid(sceneCues.outputId, outputIds)
+				)
+			),
+		db
+			.selectDistinct({ id: scenes.id, name: scenes.name })
+			.from(scenes)
+			.innerJoin(sceneResponses, eq(sceneResponses.sceneId, scenes.id))
+			.where(
+				and(
+					eq(scenes.venueId, venueId),
+					eq(sceneResponses.venueId, venueId),
+					anyUuid(sceneResponses.outputId, outputIds)
+				)
+			)
+	]);
 	const all = new Map([...rows, ...viaResponses].map((r) => [r.id, r]));
 	return [...all.values()].sort((a, b) => a.name.localeCompare(b.name));
 }

@@ -2,6 +2,8 @@
 // records are append-only; the latest row of each counts. Counters are worked out on read from the
 // counted nights and the scenes that ran on them (src/lib/wear/counters.ts states the rule).
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
+import { groupBy } from '$lib/util/group';
+import { anyUuid } from '$lib/server/db/any';
 import type { Db } from '$lib/server/db/client';
 import {
 	guestCounts,
@@ -28,7 +30,7 @@ import {
 import { figure } from '$lib/quantity';
 import { notRestored } from '$lib/server/scenes/for-show';
 
-type Reader = Pick<Db, 'select'>;
+type Reader = Pick<Db, 'select' | 'selectDistinct'>;
 
 /** The latest guest count of each of the venue's nights (or of the given ones). */
 export async function latestCounts(db: Reader, venueId: string, showIds?: string[]) {
@@ -39,7 +41,7 @@ export async function latestCounts(db: Reader, venueId: string, showIds?: string
 		.where(
 			and(
 				eq(guestCounts.venueId, venueId),
-				showIds ? inArray(guestCounts.showId, showIds) : undefined
+				showIds ? anyUuid(guestCounts.showId, showIds) : undefined
 			)
 		)
 		.orderBy(asc(guestCounts.at), asc(guestCounts.id));
@@ -86,47 +88,74 @@ async function runningScenes(db: Reader, venueId: string) {
 			.from(sceneResponses)
 			.where(eq(sceneResponses.venueId, venueId))
 	]);
+	const cuesOf = groupBy(cueRows, (c) => c.sceneId);
+	const responsesOf = groupBy(responseRows, (r) => r.sceneId);
 	return sceneRows.map((s): WearScene => ({
 		id: s.id,
 		lengthMs: s.lengthMs,
-		cues: cueRows.filter((c) => c.sceneId === s.id),
-		responses: responseRows.filter((r) => r.sceneId === s.id)
+		cues: cuesOf.get(s.id) ?? [],
+		responses: responsesOf.get(s.id) ?? []
 	}));
 }
 
-/** The venue's counted nights: each night with a guest count, its groups and the scenes it ran. */
+/** The venue's nights with a guest count, as a subquery (no list of ids passed). */
+const countedShowIds = (db: Reader, venueId: string) =>
+	db
+		.selectDistinct({ id: guestCounts.showId })
+		.from(guestCounts)
+		.where(eq(guestCounts.venueId, venueId));
+
+/**
+ * The venue's counted nights: each night with a guest count, its groups and the scenes it ran.
+ * Every read at once: the nights are picked by a subquery, not by a list of their ids.
+ */
 export async function countedNights(db: Reader, venueId: string): Promise<CountedNight[]> {
-	const counts = await latestCounts(db, venueId);
-	if (counts.size === 0) return [];
-	const ids = [...counts.keys()];
-	const [showRows, excluded, all, down] = await Promise.all([
+	const [counts, showRows, excluded, all, down] = await Promise.all([
+		latestCounts(db, venueId),
 		db
 			.select({ id: shows.id, doorsClose: shows.doorsClose })
 			.from(shows)
-			.where(and(eq(shows.venueId, venueId), inArray(shows.id, ids))),
+			.where(and(eq(shows.venueId, venueId), inArray(shows.id, countedShowIds(db, venueId)))),
 		db
 			.select({ showId: showSceneExclusions.showId, sceneId: showSceneExclusions.sceneId })
 			.from(showSceneExclusions)
 			.where(
-				and(eq(showSceneExclusions.venueId, venueId), inArray(showSceneExclusions.showId, ids))
+				and(
+					eq(showSceneExclusions.venueId, venueId),
+					inArray(showSceneExclusions.showId, countedShowIds(db, venueId))
+				)
 			),
 		runningScenes(db, venueId),
 		db
 			.select({ showId: standDowns.showId, outputId: outputs.id })
 			.from(standDowns)
-			.innerJoin(outputs, eq(outputs.propId, standDowns.propId))
-			.where(and(eq(standDowns.venueId, venueId), inArray(standDowns.showId, ids), notRestored()))
+			.innerJoin(
+				outputs,
+				and(eq(outputs.propId, standDowns.propId), eq(outputs.venueId, standDowns.venueId))
+			)
+			.where(
+				and(
+					eq(standDowns.venueId, venueId),
+					inArray(standDowns.showId, countedShowIds(db, venueId)),
+					notRestored()
+				)
+			)
 	]);
-	return showRows.map((s) => {
-		const out = new Set(excluded.filter((e) => e.showId === s.id).map((e) => e.sceneId));
-		return {
-			showId: s.id,
-			endsAt: s.doorsClose,
-			groups: groupsOf(counts.get(s.id)!),
-			scenes: all.filter((sc) => !out.has(sc.id)),
-			idleOutputs: down.filter((d) => d.showId === s.id).map((d) => d.outputId)
-		};
-	});
+	if (counts.size === 0) return [];
+	const excludedOf = groupBy(excluded, (e) => e.showId);
+	const downOf = groupBy(down, (d) => d.showId);
+	return showRows
+		.filter((s) => counts.has(s.id))
+		.map((s) => {
+			const out = new Set((excludedOf.get(s.id) ?? []).map((e) => e.sceneId));
+			return {
+				showId: s.id,
+				endsAt: s.doorsClose,
+				groups: groupsOf(counts.get(s.id)!),
+				scenes: all.filter((sc) => !out.has(sc.id)),
+				idleOutputs: (downOf.get(s.id) ?? []).map((d) => d.outputId)
+			};
+		});
 }
 
 export interface OutputWear {
@@ -147,7 +176,7 @@ async function latestSettings(db: Reader, venueId: string, outputIds?: string[])
 		.where(
 			and(
 				eq(wearSettings.venueId, venueId),
-				outputIds ? inArray(wearSettings.outputId, outputIds) : undefined
+				outputIds ? anyUuid(wearSettings.outputId, outputIds) : undefined
 			)
 		)
 		.orderBy(asc(wearSettings.at), asc(wearSettings.id));
@@ -162,9 +191,20 @@ export async function outputWear(
 	venueId: string,
 	outputIds?: string[]
 ): Promise<OutputWear[]> {
+	// Most venues set no rated life: one statement then. Otherwise one more round, in which the
+	// outputs and their maintenance are picked by a subquery on the wear settings (no list of ids).
 	const settings = await latestSettings(db, venueId, outputIds);
 	if (settings.size === 0) return [];
-	const ids = [...settings.keys()];
+	const withSetting = (col: typeof outputs.id | typeof maintenanceRecords.outputId) =>
+		outputIds
+			? anyUuid(col, outputIds)
+			: inArray(
+					col,
+					db
+						.selectDistinct({ id: wearSettings.outputId })
+						.from(wearSettings)
+						.where(eq(wearSettings.venueId, venueId))
+				);
 	const [outs, maint, nights] = await Promise.all([
 		db
 			.select({
@@ -175,20 +215,19 @@ export async function outputWear(
 				propName: props.name
 			})
 			.from(outputs)
-			.innerJoin(props, eq(props.id, outputs.propId))
-			.where(and(eq(outputs.venueId, venueId), inArray(outputs.id, ids))),
+			.innerJoin(props, and(eq(props.id, outputs.propId), eq(props.venueId, outputs.venueId)))
+			.where(and(eq(outputs.venueId, venueId), withSetting(outputs.id))),
 		db
 			.select()
 			.from(maintenanceRecords)
-			.where(
-				and(eq(maintenanceRecords.venueId, venueId), inArray(maintenanceRecords.outputId, ids))
-			)
+			.where(and(eq(maintenanceRecords.venueId, venueId), withSetting(maintenanceRecords.outputId)))
 			.orderBy(asc(maintenanceRecords.at), asc(maintenanceRecords.id)),
 		countedNights(db, venueId)
 	]);
 	const lastOf = new Map<string, (typeof maint)[number]>();
 	for (const m of maint) lastOf.set(m.outputId, m);
 	return outs
+		.filter((o) => settings.has(o.id))
 		.map((o) => {
 			const s = settings.get(o.id)!;
 			const last = lastOf.get(o.id) ?? null;

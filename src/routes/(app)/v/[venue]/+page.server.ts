@@ -39,7 +39,6 @@ export const load: PageServerLoad = async (event) => {
 	let next = null;
 	let drifting: BaselineAlert[] = [];
 	if (show) {
-		if (show.status === 'scheduled') drifting = await baselineAlerts(db, venue.id, show);
 		const summary = async () => {
 			const copy = await currentChecklist(db, venue, show.id);
 			return {
@@ -51,19 +50,29 @@ export const load: PageServerLoad = async (event) => {
 			};
 		};
 		const scheduled = show.status === 'scheduled';
-		// Owners and show managers may open every show: their summary is read alongside the rest.
-		const [crew, posts, delivery, conflicts, plannerChecklist] = await Promise.all([
-			showAssignments(db, venue.id, show.id),
-			listPositions(db, venue.id),
-			planner ? runSheetDelivery(db, venue.id, show.id) : null,
-			venue.role === 'crew' ? [] : showConflicts(db, venue.id, show.id, { show }),
-			planner && scheduled ? summary() : null
-		]);
+		// Everything about the night at once. Owners and show managers may open every show, so
+		// their summary and incident count are read alongside the rest; crew's wait for the crew
+		// list, which says whether they work the night.
+		const [crew, posts, delivery, conflicts, plannerChecklist, plannerIncidents, drift] =
+			await Promise.all([
+				showAssignments(db, venue.id, show.id),
+				listPositions(db, venue.id),
+				planner ? runSheetDelivery(db, venue.id, show.id) : null,
+				venue.role === 'crew' ? [] : showConflicts(db, venue.id, show.id, { show }),
+				planner && scheduled ? summary() : null,
+				planner ? openIncidentCount(db, venue.id, show.id) : null,
+				scheduled ? baselineAlerts(db, venue.id, show) : []
+			]);
+		drifting = drift;
 		const mine = crew.filter((a) => a.personId === event.locals.person!.id);
 		const canOpen = planner || mine.length > 0;
-		const checklist = plannerChecklist ?? (canOpen && scheduled ? await summary() : null);
+		const works = !planner && canOpen;
+		const [crewChecklist, crewIncidents] = works
+			? await Promise.all([scheduled ? summary() : null, openIncidentCount(db, venue.id, show.id)])
+			: [null, null];
+		const checklist = plannerChecklist ?? crewChecklist;
 		// The night's open incidents, for those who may open its incidents page.
-		const openIncidents = canOpen ? await openIncidentCount(db, venue.id, show.id) : null;
+		const openIncidents = planner ? plannerIncidents : crewIncidents;
 		// Every post the person has on the night, earliest call first (no extra read: the crew and
 		// positions are loaded above).
 		const myCalls = mine

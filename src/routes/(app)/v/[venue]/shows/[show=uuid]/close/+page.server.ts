@@ -2,7 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { PLANNERS, requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
 import { showAccess } from '$lib/server/checklists/access';
-import { loadClose, signClose, syncClose, tickClose } from '$lib/server/checklists/close';
+import { freshClose, signClose, tickClose } from '$lib/server/checklists/close';
 import { parseForm, keep } from '$lib/server/forms';
 import { closeSignSchema, closeTickSchema } from '$lib/schemas/wear';
 import type { Actions, PageServerLoad } from './$types';
@@ -13,8 +13,7 @@ export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event);
 	const access = await showAccess(db, venue, event.locals.person!.id, event.params.show);
 	if (!access.ok) error(access.status, access.message);
-	await syncClose(db, venue.id, access.show.id);
-	const state = await loadClose(db, venue.id, access.show.id);
+	const state = await freshClose(db, venue.id, access.show.id);
 	return {
 		show: { id: access.show.id, date: access.show.date },
 		lines: state.lines.map((l) => ({ ...l, at: l.at?.toISOString() ?? null })),

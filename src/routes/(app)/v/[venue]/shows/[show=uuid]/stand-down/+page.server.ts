@@ -1,11 +1,12 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { and, asc, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
+import { anyUuid } from '$lib/server/db/any';
 import { PLANNERS, requireRole } from '$lib/server/auth/guard';
 import { db } from '$lib/server/db';
 import { props } from '$lib/server/db/schema';
 import { config } from '$lib/server/config';
 import { standDown, standDownPreview } from '$lib/server/checklists/signoff';
-import { loadChecklist } from '$lib/server/checklists/state';
+import { currentChecklist } from '$lib/server/checklists/copies';
 import { scenesForShow } from '$lib/server/scenes/for-show';
 import { getShow } from '$lib/server/schedule/shows';
 import { noticeRunSheetChanges } from '$lib/server/runsheets/send';
@@ -20,8 +21,8 @@ export const load: PageServerLoad = async (event) => {
 	const venue = requireRole(event, ...PLANNERS);
 	const show = await getShow(db, venue.id, event.params.show);
 	if (!show) error(404, 'There is no such show.');
-	const [checklist, night] = await Promise.all([
-		loadChecklist(db, venue, show.id),
+	const [{ view: checklist }, night] = await Promise.all([
+		currentChecklist(db, venue, show.id),
 		scenesForShow(db, venue.id, show.id)
 	]);
 	const ids = [...new Set(night.flatMap((s) => s.propIds))];
@@ -31,7 +32,7 @@ export const load: PageServerLoad = async (event) => {
 		? await db
 				.select({ id: props.id, name: props.name })
 				.from(props)
-				.where(and(eq(props.venueId, venue.id), inArray(props.id, ids)))
+				.where(and(eq(props.venueId, venue.id), anyUuid(props.id, ids)))
 				.orderBy(asc(props.name))
 		: [];
 	const choices = rows
