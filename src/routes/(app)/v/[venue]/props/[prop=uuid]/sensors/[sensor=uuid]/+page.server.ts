@@ -160,10 +160,7 @@ export const actions: Actions = {
 	apply: async (event) => {
 		const venue = requireRole(event, ...EDITORS);
 		const { prop, sensor } = await find(event, venue.id);
-		const parsed = await parseForm(
-			event.request,
-			z.object({ captureId: z.uuid(), changeReason: z.string().optional() })
-		);
+		const parsed = await parseForm(event.request, z.object({ captureId: z.uuid() }));
 		if (!parsed.ok) return fail(400, { action: 'apply', message: 'Choose a capture first.' });
 		const [capture] = await db
 			.select()
