@@ -69,8 +69,8 @@ describe('calendar headings', () => {
 		}
 	});
 
-	it('title a week with its last day, the year once unless it changes', () => {
-		expect(wallWeek(new Date(2027, 8, 27), new Date(2027, 9, 4))).toBe('27 Sep – 3 Oct 2027');
-		expect(wallWeek(new Date(2027, 11, 27), new Date(2028, 0, 3))).toBe('27 Dec 2027 – 2 Jan 2028');
+	it('title a week from its first to its last day, the year once unless it changes', () => {
+		expect(wallWeek(new Date(2027, 8, 27), new Date(2027, 9, 3))).toBe('27 Sep – 3 Oct 2027');
+		expect(wallWeek(new Date(2027, 11, 27), new Date(2028, 0, 2))).toBe('27 Dec 2027 – 2 Jan 2028');
 	});
 });

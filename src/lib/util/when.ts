@@ -85,12 +85,12 @@ export function wallDay(d: Date, withYear = false): string {
 	return withYear ? `${day} ${d.getFullYear()}` : day;
 }
 
-/** A floating week as the calendar titles it: '27 Sep – 3 Oct 2027', end exclusive. */
-export function wallWeek(start: Date, end: Date | null): string {
-	const last = end ? new Date(end.getTime() - 1) : start;
+/** A floating range of days as the calendar titles it, last day included: '27 Sep – 3 Oct 2027'. */
+export function wallWeek(start: Date, last: Date | null): string {
+	const end = last ?? start;
 	const first = `${start.getDate()} ${MONTHS[start.getMonth()]}`;
-	const year = start.getFullYear() === last.getFullYear() ? '' : ` ${start.getFullYear()}`;
-	return `${first}${year} – ${last.getDate()} ${MONTHS[last.getMonth()]} ${last.getFullYear()}`;
+	const year = start.getFullYear() === end.getFullYear() ? '' : ` ${start.getFullYear()}`;
+	return `${first}${year} – ${end.getDate()} ${MONTHS[end.getMonth()]} ${end.getFullYear()}`;
 }
 
 /** The venue's local date 'YYYY-MM-DD' of an instant. */
